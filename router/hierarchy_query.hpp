@@ -1,0 +1,55 @@
+#pragma once
+// Queries on a ContractionHierarchy: point-to-point bidirectional search with stall-on-demand,
+// and many-to-many by the bucket method (Knopp et al. 2007): a backward upward search from each
+// target leaves (target, distance) in a bucket at every node it settles; a forward upward search
+// from each source scans the buckets of the nodes it settles. Starts and ends are sets of
+// weighted nodes (a stop mid-edge joins the graph at up to two nodes).
+// A HierarchySearch is a reusable workspace (stamped labels); one per thread.
+
+#include "router/contraction_hierarchy.hpp"
+#include "router/dijkstra.hpp"
+
+#include <cstdint>
+#include <span>
+#include <vector>
+
+namespace ringroad::router {
+
+class HierarchySearch {
+public:
+    explicit HierarchySearch(const ContractionHierarchy& hierarchy);
+
+    // Shortest weight from any start to any end (ends carry the weight still to pay after the
+    // node); kUnreachableWeight if none. When `path` is given it receives the routing nodes
+    // from the chosen start node to the chosen end node, inclusive, unpacked.
+    PackedWeight shortest(std::span<const WeightedNode> starts, std::span<const WeightedNode> ends,
+                          std::vector<NodeId>* path = nullptr);
+
+    // Upward search from `starts` in one direction (forward: along arcs; backward: against
+    // them); appends (node, weight) for every node settled and not stalled. Used by the bucket
+    // many-to-many.
+    void upward_search(std::span<const WeightedNode> starts, bool forward,
+                       std::vector<WeightedNode>& settled);
+
+private:
+    struct Side {
+        std::vector<PackedWeight> distance;
+        std::vector<NodeId> parent;
+        std::vector<std::uint32_t> stamp;
+        std::vector<NodeId> heap;
+        std::vector<std::uint32_t> heap_position;
+        std::uint32_t query = 0;
+    };
+    const ContractionHierarchy* hierarchy_;
+    Side forward_;
+    Side backward_;
+};
+
+// Many-to-many: result[i * ends.size() + j] = shortest weight from starts[i] to ends[j], computed
+// on `threads` threads (0 = all cores). Each start/end is a set of weighted nodes.
+std::vector<PackedWeight> hierarchy_many_to_many(const ContractionHierarchy& hierarchy,
+                                                 const std::vector<std::vector<WeightedNode>>& starts,
+                                                 const std::vector<std::vector<WeightedNode>>& ends,
+                                                 unsigned threads = 0);
+
+} // namespace ringroad::router

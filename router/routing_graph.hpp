@@ -1,0 +1,81 @@
+#pragma once
+// RoutingGraph: the edge-based graph both Dijkstra and the contraction hierarchy search, derived
+// deterministically from a graph::RoadGraph at load time.
+//
+// One routing node per road edge (graph::EdgeId): node e means "having driven along edge e, now
+// at its head vertex". A turn arc e -> f exists when f leaves e's head and the turn is allowed;
+// its cost is the cost of f (so a path's cost is the sum of the edges driven after the first).
+// Turns are forbidden when
+//  * f drives back along e's segment (a U-turn) and e's head is not a dead end (a vertex with a
+//    single road segment touching it): U-turns happen only where the road ends;
+//  * a turn restriction applies and `honour_turn_restrictions` is set: `no_*` forbids (from, via,
+//    to), `only_*` forbids every other exit of `via` when arriving along `from`.
+// Because the expansion is exact, restrictions and U-turn rules hold everywhere, not only at
+// junctions that were split; the price is about twice as many nodes as junctions.
+
+#include "graph/road_graph.hpp"
+#include "router/metric.hpp"
+
+#include <cstdint>
+#include <span>
+#include <vector>
+
+namespace ringroad::router {
+
+using NodeId = std::uint32_t;            // == graph::EdgeId
+inline constexpr NodeId kNoNode = graph::kNoEdge;
+
+enum class RestrictionPolicy : std::uint8_t {
+    automatic,   // honour when the graph's profile is "car" (or unknown), ignore for bicycle/foot
+    honour,
+    ignore,
+};
+
+class RoutingGraph {
+public:
+    RoutingGraph() = default;
+    RoutingGraph(const graph::RoadGraph& road_graph, RestrictionPolicy policy);
+
+    std::uint32_t node_count() const noexcept { return static_cast<std::uint32_t>(node_time_ds_.size()); }
+    std::uint32_t arc_count() const noexcept { return static_cast<std::uint32_t>(arc_head_.size()); }
+    bool honours_turn_restrictions() const noexcept { return honours_restrictions_; }
+
+    // Successors of node e (allowed turns), in the order of the road graph's adjacency.
+    std::span<const NodeId> successors(NodeId node) const {
+        return {arc_head_.data() + first_arc_[node], first_arc_[node + 1] - first_arc_[node]};
+    }
+    // Predecessors of node f: the nodes with an allowed turn into f.
+    std::span<const NodeId> predecessors(NodeId node) const {
+        return {reverse_arc_tail_.data() + first_reverse_arc_[node],
+                first_reverse_arc_[node + 1] - first_reverse_arc_[node]};
+    }
+
+    // Cost of entering node f (driving all of edge f).
+    std::uint32_t node_time_ds(NodeId node) const { return node_time_ds_[node]; }
+    std::uint32_t node_length_dm(NodeId node) const { return node_length_dm_[node]; }
+    PackedWeight node_weight(Metric metric, NodeId node) const {
+        return pack_weight(metric, node_time_ds_[node], node_length_dm_[node]);
+    }
+
+    std::span<const std::uint32_t> first_arc() const noexcept { return first_arc_; }
+    std::span<const NodeId> arc_heads() const noexcept { return arc_head_; }
+
+    // A number that changes whenever the expansion would (used to check a stored hierarchy
+    // belongs to this graph): FNV-1a over node count, arcs and costs.
+    std::uint64_t fingerprint() const noexcept { return fingerprint_; }
+
+private:
+    std::vector<std::uint32_t> first_arc_;
+    std::vector<NodeId> arc_head_;
+    std::vector<std::uint32_t> first_reverse_arc_;
+    std::vector<NodeId> reverse_arc_tail_;
+    std::vector<std::uint32_t> node_time_ds_;
+    std::vector<std::uint32_t> node_length_dm_;
+    bool honours_restrictions_ = false;
+    std::uint64_t fingerprint_ = 0;
+};
+
+// Whether `policy` means restrictions are honoured for this graph (reads metadata "profile").
+bool should_honour_restrictions(const graph::RoadGraph& road_graph, RestrictionPolicy policy);
+
+} // namespace ringroad::router
