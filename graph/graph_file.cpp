@@ -36,10 +36,10 @@ struct FileHeader {
     std::uint64_t file_size;
     std::uint64_t section_table_offset;
     std::uint32_t section_table_crc;
-    std::uint8_t reserved[20];
-    std::uint32_t header_crc;     // CRC32 of the 60 bytes before it
+    std::uint8_t reserved[24];
+    std::uint32_t header_crc;     // CRC32 of the 60 bytes before it (offset 60)
 };
-static_assert(sizeof(FileHeader) == kHeaderSize);
+static_assert(sizeof(FileHeader) == kHeaderSize && offsetof(FileHeader, header_crc) == 60);
 
 struct SectionEntry {
     char tag[kTagSize];           // NUL-padded
