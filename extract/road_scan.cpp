@@ -1,0 +1,160 @@
+#include "extract/road_scan.hpp"
+
+#include "common/input_error.hpp"
+#include "common/progress.hpp"
+#include "extract/turn_restrictions.hpp"
+
+#include <osmium/handler.hpp>
+#include <osmium/io/bzip2_compression.hpp>
+#include <osmium/io/gzip_compression.hpp>
+#include <osmium/io/pbf_input.hpp>
+#include <osmium/io/xml_input.hpp>
+#include <osmium/visitor.hpp>
+#include <protozero/exception.hpp>
+
+#include <algorithm>
+#include <filesystem>
+#include <system_error>
+#include <unordered_map>
+
+namespace ringroad::extract {
+
+namespace {
+
+// Pass 1: road ways (with their node ids, names and rules) and turn restrictions.
+class RoadWayCollector : public osmium::handler::Handler {
+public:
+    RoadWayCollector(const Profile& profile, CollectedRoads& roads) : profile_(profile), roads_(roads) {}
+
+    void way(const osmium::Way& way) {
+        const WayRule rule = evaluate_way(way.tags(), profile_);
+        if (!rule.is_road) return;
+        CollectedWay collected;
+        collected.way_id = way.id();
+        collected.first_node = static_cast<std::uint32_t>(roads_.way_node_ids.size());
+        for (const auto& node_ref : way.nodes()) roads_.way_node_ids.push_back(node_ref.ref());
+        collected.node_count = static_cast<std::uint32_t>(way.nodes().size());
+        collected.name = name_offset(way.tags());
+        collected.rule = rule;
+        roads_.ways.push_back(collected);
+    }
+
+    void relation(const osmium::Relation& relation) {
+        if (auto restriction = read_turn_restriction(relation, profile_)) {
+            roads_.restrictions.push_back(std::move(*restriction));
+        }
+    }
+
+private:
+    // Names are shared by many ways of one street: each distinct name is stored once.
+    std::uint32_t name_offset(const osmium::TagList& tags) {
+        const char* name = tags.get_value_by_key("name");
+        if (name == nullptr) name = tags.get_value_by_key("ref");
+        if (name == nullptr || *name == '\0') return graph::kNoName;
+        const auto [position, inserted] =
+            offsets_.try_emplace(name, static_cast<std::uint32_t>(roads_.names.size()));
+        if (inserted) {
+            roads_.names += name;
+            roads_.names += '\0';
+        }
+        return position->second;
+    }
+
+    const Profile& profile_;
+    CollectedRoads& roads_;
+    std::unordered_map<std::string, std::uint32_t> offsets_;
+};
+
+// Pass 2: locations and barrier rules of the road nodes (road_node_ids), nothing else.
+class RoadNodeCollector : public osmium::handler::Handler {
+public:
+    RoadNodeCollector(const Profile& profile, CollectedRoads& roads) : profile_(profile), roads_(roads) {}
+
+    void node(const osmium::Node& node) {
+        const auto& ids = roads_.road_node_ids;
+        // Files are usually sorted by id: search from the last hit first.
+        auto begin = ids.begin() + static_cast<std::ptrdiff_t>(cursor_);
+        if (begin != ids.begin() && *(begin - 1) >= node.id()) begin = ids.begin();
+        const auto found = std::lower_bound(begin, ids.end(), node.id());
+        cursor_ = static_cast<std::size_t>(found - ids.begin());
+        if (found == ids.end() || *found != node.id() || !node.location().valid()) return;
+        RoadNode& road_node = roads_.road_nodes[cursor_];
+        road_node.found = true;
+        road_node.location = {node.location().y(), node.location().x()};
+        if (node.tags().has_key("barrier")) road_node.barrier = evaluate_barrier(node.tags(), profile_);
+    }
+
+private:
+    const Profile& profile_;
+    CollectedRoads& roads_;
+    std::size_t cursor_ = 0;
+};
+
+template <typename Handler>
+void read_pass(const osmium::io::File& file, osmium::osm_entity_bits::type entities, Handler& handler,
+               Progress* progress, std::string* replication_timestamp) {
+    osmium::io::Reader reader{file, entities};
+    if (replication_timestamp != nullptr) *replication_timestamp = reader.header().get("osmosis_replication_timestamp");
+    const double size = static_cast<double>(std::max<std::size_t>(reader.file_size(), 1));
+    while (osmium::memory::Buffer buffer = reader.read()) {
+        osmium::apply(buffer, handler);
+        if (progress != nullptr) progress->update(static_cast<double>(reader.offset()) / size);
+    }
+    reader.close();
+}
+
+void index_road_nodes(CollectedRoads& roads) {
+    roads.road_node_ids = roads.way_node_ids;
+    std::sort(roads.road_node_ids.begin(), roads.road_node_ids.end());
+    roads.road_node_ids.erase(std::unique(roads.road_node_ids.begin(), roads.road_node_ids.end()),
+                              roads.road_node_ids.end());
+    roads.road_nodes.assign(roads.road_node_ids.size(), RoadNode{});
+}
+
+std::string one_line(std::string text) {
+    std::replace(text.begin(), text.end(), '\n', ' ');
+    while (!text.empty() && (text.back() == ' ' || text.back() == '.')) text.pop_back();
+    return text;
+}
+
+osmium::io::File open_checked(const std::string& path) {
+    std::error_code error;
+    if (!std::filesystem::exists(path, error)) throw InputError(path + ": no such file");
+    if (std::filesystem::is_directory(path, error)) throw InputError(path + ": is a folder, not an OSM file");
+    osmium::io::File file{path};
+    if (file.format() != osmium::io::file_format::pbf && file.format() != osmium::io::file_format::xml) {
+        throw InputError(path + ": not an OSM file (expected .osm.pbf, .pbf, .osm, .osm.gz or .osm.bz2)");
+    }
+    return file;
+}
+
+void scan_passes(const osmium::io::File& file, const Profile& profile, Progress* progress, CollectedRoads& roads) {
+    if (progress != nullptr) progress->phase("reading roads");
+    RoadWayCollector way_collector{profile, roads};
+    read_pass(file, osmium::osm_entity_bits::way | osmium::osm_entity_bits::relation, way_collector, progress,
+              &roads.replication_timestamp);
+    index_road_nodes(roads);
+
+    if (progress != nullptr) progress->phase("reading road node locations");
+    RoadNodeCollector node_collector{profile, roads};
+    read_pass(file, osmium::osm_entity_bits::node, node_collector, progress, nullptr);
+}
+
+} // namespace
+
+CollectedRoads scan_osm_file(const std::string& path, const Profile& profile, Progress* progress) {
+    const osmium::io::File file = open_checked(path);
+    CollectedRoads roads;
+    try {
+        scan_passes(file, profile, progress, roads);
+    } catch (const osmium::io_error& error) {
+        throw InputError(path + ": not a readable OSM file, or truncated or corrupt: " + one_line(error.what()));
+    } catch (const protozero::exception& error) {
+        throw InputError(path + ": truncated or corrupt: " + one_line(error.what()));
+    } catch (const std::system_error& error) {
+        throw InputError(path + ": cannot read: " + one_line(error.what()));
+    }
+    return roads;
+}
+
+} // namespace ringroad::extract
