@@ -5,7 +5,12 @@
 //  * exact (Held–Karp) up to `exact_limit` stops, proven optimal;
 //  * otherwise constructions + local search + iterated perturbation until the time limit,
 //    deterministic for a given seed, with the Held–Karp 1-tree bound (symmetric) or the
-//    assignment bound (asymmetric).
+//    assignment bound and the Held–Karp bound of the asymmetric problem (asymmetric).
+// Determinism: the time limit is converted into a budget of work units (move evaluations and
+// array steps, calibrated so that one second of budget takes about one second on a 2020s
+// desktop core). The search stops when the budget is spent, so the same matrix, request and seed
+// give the same tour on any machine and under any load; the elapsed time only approximates the
+// limit. `work_limit` replaces that conversion by an explicit budget.
 
 #include "router/planners/cost_matrix.hpp"
 
@@ -33,6 +38,8 @@ struct TourRequest {
     std::uint64_t seed = 1;
     std::size_t exact_limit = 16;        // Held–Karp up to this many stops (at most 20)
     TourMethod method = TourMethod::automatic;
+    std::optional<std::uint64_t> work_limit;  // explicit search budget in work units; when set
+                                              // the time limit is not used for the search
 };
 
 struct TourResult {
@@ -46,6 +53,8 @@ struct TourResult {
     bool proven_optimal = false;
     std::string method;                  // e.g. "held-karp", "greedy+2-opt+or-opt+double-bridge"
     double elapsed_seconds = 0.0;
+    bool symmetric = false;              // whether the matrix was treated as symmetric
+    std::uint64_t kicks = 0;             // perturbations tried by the iterated search
 };
 
 // Throws InputError when no tour exists (a stop cannot be reached / left through finite

@@ -1,0 +1,16 @@
+#pragma once
+// Starting tours for local search.
+//  * nearest neighbour: from the start, always go to the cheapest unvisited city;
+//  * greedy edge (the "greedy" matching heuristic of Johnson & McGeoch): take connections in
+//    order of cost whenever they keep every city at most one way in and one way out (both ends
+//    for symmetric costs) and close no early cycle; the fragments are then chained by nearest
+//    neighbour between fragment ends.
+
+#include "router/planners/closed_tour.hpp"
+
+namespace ringroad::planners {
+
+ClosedTour nearest_neighbour_tour(const CostMatrix& costs, int start);
+ClosedTour greedy_edge_tour(const CostMatrix& costs, bool symmetric);
+
+} // namespace ringroad::planners
