@@ -2,6 +2,8 @@
 // Dijkstra's algorithm on the routing graph from several weighted start nodes, with an early
 // stop once a given set of nodes is settled. The workspace is reused between queries: labels are
 // stamped with a query number, so a query touches only what it reaches (no O(n) clearing).
+// The priority queue is a radix heap (Ahuja, Mehlhorn, Orlin, Tarjan 1990): Dijkstra's keys only
+// grow, and with integer keys a radix heap needs no decrease-key and few comparisons.
 // Not thread-safe: one workspace per thread.
 
 #include "router/metric.hpp"
@@ -25,11 +27,11 @@ public:
     // Label of a node in the last query: kUnreachableWeight if not reached (or not settled
     // before the early stop, in which case it is an upper bound, see is_settled).
     PackedWeight distance(NodeId node) const {
-        return stamp_[node] == query_ ? distance_[node] : kUnreachableWeight;
+        return labels_[node].stamp == query_ ? labels_[node].distance : kUnreachableWeight;
     }
-    bool is_settled(NodeId node) const { return stamp_[node] == query_ && settled_[node]; }
+    bool is_settled(NodeId node) const { return labels_[node].stamp == query_ && (labels_[node].state & 2u); }
     // Predecessor node on the shortest path tree, kNoNode for a start node.
-    NodeId parent(NodeId node) const { return parent_[node]; }
+    NodeId parent(NodeId node) const { return labels_[node].parent; }
     std::uint32_t settled_count() const noexcept { return settled_count_; }
 
     // The nodes from a start node to `node` along the tree (node must be reached).
@@ -38,16 +40,26 @@ public:
 private:
     friend void run_dijkstra(const RoutingGraph&, Metric, std::span<const WeightedNode>,
                              std::span<const NodeId>, DijkstraWorkspace&);
+    struct Label {
+        PackedWeight distance;
+        NodeId parent;
+        std::uint32_t stamp;      // == query_ when distance/parent/state belong to this query
+        std::uint32_t state;      // kReached, kSettled, or kReached|kTarget
+        std::uint32_t padding;
+    };
+    struct HeapItem {
+        PackedWeight key;
+        NodeId node;
+    };
     void start_query(std::uint32_t node_count);
-    void heap_push_or_decrease(NodeId node, PackedWeight weight);
-    NodeId heap_pop();
+    void push(PackedWeight key, NodeId node);
+    bool pop(HeapItem& item);   // the smallest item; stale copies are the caller's to skip
 
-    std::vector<PackedWeight> distance_;
-    std::vector<NodeId> parent_;
-    std::vector<std::uint32_t> stamp_;
-    std::vector<std::uint8_t> settled_;
-    std::vector<std::uint32_t> heap_position_;
-    std::vector<NodeId> heap_;          // 4-ary min-heap of nodes keyed by distance_
+    std::vector<Label> labels_;
+    std::vector<HeapItem> buckets_[65];   // radix heap: bucket i holds keys differing from
+                                          // last_popped_ first in bit i - 1
+    PackedWeight last_popped_ = 0;
+    std::size_t heap_size_ = 0;
     std::uint32_t query_ = 0;
     std::uint32_t settled_count_ = 0;
 };

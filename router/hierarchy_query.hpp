@@ -36,10 +36,16 @@ private:
         std::vector<PackedWeight> distance;
         std::vector<NodeId> parent;
         std::vector<std::uint32_t> stamp;
-        std::vector<NodeId> heap;
-        std::vector<std::uint32_t> heap_position;
+        std::vector<std::pair<PackedWeight, NodeId>> heap;   // lazy deletion: stale entries skipped
         std::uint32_t query = 0;
+        bool forward = true;
+
+        PackedWeight label(NodeId node) const { return stamp[node] == query ? distance[node] : kUnreachableWeight; }
     };
+    void start(Side& side, std::span<const WeightedNode> starts);
+    bool stalled(const Side& side, NodeId node, PackedWeight weight) const;
+    void relax(Side& side, NodeId node, PackedWeight weight);
+    bool pop(Side& side, NodeId& node, PackedWeight& weight);
     const ContractionHierarchy* hierarchy_;
     Side forward_;
     Side backward_;

@@ -54,7 +54,11 @@ public:
     std::uint32_t node_time_ds(NodeId node) const { return node_time_ds_[node]; }
     std::uint32_t node_length_dm(NodeId node) const { return node_length_dm_[node]; }
     PackedWeight node_weight(Metric metric, NodeId node) const {
-        return pack_weight(metric, node_time_ds_[node], node_length_dm_[node]);
+        return node_weights_[static_cast<int>(metric)][node];
+    }
+    // All nodes' packed weights for one metric (the inner loop of the searches reads these).
+    std::span<const PackedWeight> node_weights(Metric metric) const noexcept {
+        return node_weights_[static_cast<int>(metric)];
     }
 
     std::span<const std::uint32_t> first_arc() const noexcept { return first_arc_; }
@@ -71,6 +75,7 @@ private:
     std::vector<NodeId> reverse_arc_tail_;
     std::vector<std::uint32_t> node_time_ds_;
     std::vector<std::uint32_t> node_length_dm_;
+    std::vector<PackedWeight> node_weights_[2];
     bool honours_restrictions_ = false;
     std::uint64_t fingerprint_ = 0;
 };

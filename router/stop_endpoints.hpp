@@ -10,6 +10,10 @@
 // router/HIERARCHY.md "Stops"). Two stops on the same segment are also joined directly when the
 // direction from one to the other is allowed.
 //
+// A stop that snaps exactly onto a vertex (fraction 0 or 1) is a junction stop: it is reached by
+// arriving at the junction along any road (arrival entries with stop_edge == kNoNode and cost 0)
+// and left along any road leaving it (departures paying the whole edge).
+//
 // Partial costs are integers: the part before the stop is round(p * cost) with p the stop's
 // position along the direction of travel, the part after is cost minus that, so both halves
 // always add up to the edge's cost.
@@ -33,7 +37,8 @@ struct NodeCost {
 
 struct ArrivalEntry {
     NodeId from_node = kNoNode;     // the node reached before turning into the stop's edge
-    NodeId stop_edge = kNoNode;     // the stop's edge (routing node) driven partly
+    NodeId stop_edge = kNoNode;     // the stop's edge (routing node) driven partly; kNoNode
+                                    // at a junction stop (arriving at the junction suffices)
     std::uint32_t time_ds = 0;      // the part of stop_edge up to the stop
     std::uint32_t length_dm = 0;
     PackedWeight weight(Metric metric) const { return pack_weight(metric, time_ds, length_dm); }
@@ -42,6 +47,7 @@ struct ArrivalEntry {
 struct StopEndpoints {
     graph::SegmentId segment = 0;
     double fraction = 0.0;
+    graph::VertexId junction = graph::kNoVertex;   // set for a junction stop
     std::vector<NodeCost> departures;      // one per allowed direction
     std::vector<ArrivalEntry> arrivals;    // one per allowed turn into an allowed direction
 };

@@ -1,0 +1,180 @@
+// Router benchmark: on the largest real extract at hand (Andorra, © OpenStreetMap contributors,
+// ODbL 1.0), N = 100 and 1000 random stops: the Boost Graph Library's dijkstra_shortest_paths
+// (N = 100 only) against our Dijkstra on the same routing graph, and our Dijkstra matrix against
+// the contraction hierarchy's many-to-many; milliseconds, ratios, peak memory, hierarchy build
+// time and size. Usage: router_bench [extract.osm.pbf]
+#include "bench/peak_memory.hpp"
+#include "extract/road_extractor.hpp"
+#include "router/contraction_hierarchy.hpp"
+#include "router/dijkstra.hpp"
+#include "router/hierarchy_query.hpp"
+#include "router/road_router.hpp"
+
+#include <boost/graph/adjacency_list.hpp>
+#include <boost/graph/dijkstra_shortest_paths.hpp>
+
+#include <chrono>
+#include <ctime>
+#include <cstdio>
+#include <random>
+#include <string>
+#include <thread>
+
+using namespace ringroad;
+using namespace ringroad::router;
+
+namespace {
+
+double milliseconds_since(std::chrono::steady_clock::time_point start) {
+    return std::chrono::duration<double, std::milli>(std::chrono::steady_clock::now() - start).count();
+}
+
+// CPU time of the whole process (all threads): on a machine shared with other work, wall time
+// measures the neighbours too; the ratios below use CPU time.
+double process_cpu_milliseconds() {
+    timespec now{};
+    clock_gettime(CLOCK_PROCESS_CPUTIME_ID, &now);
+    return now.tv_sec * 1e3 + now.tv_nsec / 1e6;
+}
+
+using BglGraph = boost::adjacency_list<boost::vecS, boost::vecS, boost::directedS, boost::no_property,
+                                       boost::property<boost::edge_weight_t, std::uint64_t>>;
+
+std::vector<SnappedStop> random_stops(const RoadRouter& router, std::size_t count, std::uint64_t seed) {
+    const graph::RoadGraph& graph = router.road_graph();
+    std::mt19937_64 random(seed);
+    std::vector<SnappedStop> stops;
+    while (stops.size() < count) {
+        const auto vertex = static_cast<graph::VertexId>(random() % graph.vertex_count());
+        if (!graph.in_main_component(vertex)) continue;
+        const graph::Coordinate at = graph.coordinate(vertex);
+        const double lat = at.lat() + (static_cast<double>(random() % 1000) - 500.0) * 1e-6;
+        const double lon = at.lon() + (static_cast<double>(random() % 1000) - 500.0) * 1e-6;
+        stops.push_back(router.snap("s" + std::to_string(stops.size()), lat, lon));
+    }
+    return stops;
+}
+
+std::vector<NodeId> departure_nodes_of(const RoadRouter& router, const std::vector<SnappedStop>& stops) {
+    std::vector<NodeId> nodes;
+    for (const SnappedStop& stop : stops) {
+        const graph::Segment& segment = router.road_graph().segments()[stop.segment];
+        nodes.push_back(segment.forward_edge != graph::kNoEdge ? segment.forward_edge : segment.backward_edge);
+    }
+    return nodes;
+}
+
+} // namespace
+
+int main(int argc, char** argv) {
+    const std::string path = argc > 1 ? argv[1] : std::string(RINGROAD_FIXTURES_DIR) + "/osm/andorra.osm.pbf";
+    const unsigned cores = std::max(1u, std::thread::hardware_concurrency());
+    std::printf("router benchmark on %s (%u cores)\n", path.c_str(), cores);
+
+    auto start = std::chrono::steady_clock::now();
+    extract::ExtractOptions options;
+    options.input_path = path;
+    graph::RoadGraph road_graph = extract::extract_and_build_road_graph(options, nullptr);
+    std::printf("extract: %.0f ms, %u junctions, %u edges, %zu turn restrictions\n", milliseconds_since(start),
+                road_graph.vertex_count(), road_graph.edge_count(), road_graph.turn_restrictions().size());
+
+    start = std::chrono::steady_clock::now();
+    RoadRouter router(road_graph);
+    const RoutingGraph& routing_graph = router.routing_graph();
+    std::printf("routing graph + snap index: %.0f ms, %u nodes, %u turn arcs\n", milliseconds_since(start),
+                routing_graph.node_count(), routing_graph.arc_count());
+
+    start = std::chrono::steady_clock::now();
+    const ContractionHierarchy hierarchy = ContractionHierarchy::build(routing_graph, Metric::time);
+    const double build_ms = milliseconds_since(start);
+    std::printf("hierarchy build (time metric): %.0f ms, %u upward arcs of which %u shortcuts, %.1f MiB\n", build_ms,
+                hierarchy.arc_count(), hierarchy.shortcut_count(), hierarchy.byte_size() / 1048576.0);
+    {
+        HierarchySearch search(hierarchy);
+        std::vector<WeightedNode> settled;
+        std::mt19937_64 random(4);
+        for (int k = 0; k < 200; ++k) {
+            const WeightedNode from{static_cast<NodeId>(random() % routing_graph.node_count()), 0};
+            search.upward_search({&from, 1}, k % 2 == 0, settled);
+        }
+        std::printf("hierarchy search space: %.0f nodes settled per upward search (average)\n", settled.size() / 200.0);
+    }
+    // Warm the router's own copy so matrix timings exclude the build.
+    (void)router.matrix(random_stops(router, 2, 1), Metric::time, Engine::hierarchy);
+
+    // Per-source one-to-all Dijkstra, single thread: BGL against ours, same graph and weights.
+    const std::vector<SnappedStop> stops100 = random_stops(router, 100, 100);
+    const std::vector<NodeId> sources = departure_nodes_of(router, stops100);
+    BglGraph bgl(routing_graph.node_count());
+    for (NodeId tail = 0; tail < routing_graph.node_count(); ++tail) {
+        for (NodeId head : routing_graph.successors(tail)) boost::add_edge(tail, head, routing_graph.node_weight(Metric::time, head), bgl);
+    }
+    std::vector<std::uint64_t> distance(routing_graph.node_count());
+    double cpu_start = process_cpu_milliseconds();
+    std::uint64_t checksum_bgl = 0;
+    for (NodeId source : sources) {
+        boost::dijkstra_shortest_paths(bgl, source, boost::distance_map(boost::make_iterator_property_map(
+                                                        distance.begin(), boost::get(boost::vertex_index, bgl))));
+        checksum_bgl += distance[sources.front()] != std::numeric_limits<std::uint64_t>::max();
+    }
+    const double bgl_ms = (process_cpu_milliseconds() - cpu_start) / sources.size();
+    DijkstraWorkspace workspace(routing_graph.node_count());
+    cpu_start = process_cpu_milliseconds();
+    std::uint64_t checksum_ours = 0;
+    for (NodeId source : sources) {
+        const WeightedNode from{source, 0};
+        run_dijkstra(routing_graph, Metric::time, {&from, 1}, {}, workspace);
+        checksum_ours += workspace.distance(sources.front()) != kUnreachableWeight;
+    }
+    const double ours_ms = (process_cpu_milliseconds() - cpu_start) / sources.size();
+
+    std::printf("\n| measure | CPU ms | wall ms | ratio (CPU) |\n|---|---:|---:|---:|\n");
+    std::printf("| BGL dijkstra_shortest_paths, one source to all, 1 thread | %.2f | | 1.00 |\n", bgl_ms);
+    std::printf("| our Dijkstra, one source to all, 1 thread | %.2f | | %.2fx faster |\n", ours_ms, bgl_ms / ours_ms);
+    if (checksum_bgl != checksum_ours) std::printf("(reachability differs: %llu vs %llu)\n",
+                                                   static_cast<unsigned long long>(checksum_bgl),
+                                                   static_cast<unsigned long long>(checksum_ours));
+
+    for (std::size_t n : {std::size_t{100}, std::size_t{1000}}) {
+        const std::vector<SnappedStop> stops = n == 100 ? stops100 : random_stops(router, n, 1000);
+        start = std::chrono::steady_clock::now();
+        cpu_start = process_cpu_milliseconds();
+        const TravelMatrix by_dijkstra = router.matrix(stops, Metric::time, Engine::dijkstra);
+        const double dijkstra_ms = milliseconds_since(start);
+        const double dijkstra_cpu = process_cpu_milliseconds() - cpu_start;
+        start = std::chrono::steady_clock::now();
+        cpu_start = process_cpu_milliseconds();
+        const TravelMatrix by_hierarchy = router.matrix(stops, Metric::time, Engine::hierarchy);
+        const double hierarchy_ms = milliseconds_since(start);
+        const double hierarchy_cpu = process_cpu_milliseconds() - cpu_start;
+        {
+            // The bucket many-to-many alone, without snapping glue and output arrays.
+            std::vector<std::vector<WeightedNode>> starts(n), ends(n);
+            const std::vector<NodeId> nodes = departure_nodes_of(router, stops);
+            for (std::size_t i = 0; i < n; ++i) {
+                starts[i] = {{nodes[i], 0}};
+                ends[i] = {{nodes[i], 0}};
+            }
+            const double core_start = process_cpu_milliseconds();
+            const auto core_wall = std::chrono::steady_clock::now();
+            const std::vector<PackedWeight> core = hierarchy_many_to_many(hierarchy, starts, ends, 0);
+            std::printf("| (bucket many-to-many core alone, %zux%zu) | %.1f | %.1f | |\n", n, n,
+                        process_cpu_milliseconds() - core_start, milliseconds_since(core_wall));
+        }
+        std::size_t differences = 0;
+        for (std::size_t i = 0; i < n; ++i) {
+            for (std::size_t j = 0; j < n; ++j) differences += by_dijkstra.weight(i, j) != by_hierarchy.weight(i, j);
+        }
+        if (n == 100) {
+            std::printf("| BGL Dijkstra %zux%zu matrix (%zu sources x one-to-all) | %.1f | | %.2f |\n", n, n, n,
+                        bgl_ms * n, bgl_ms * n / dijkstra_cpu);
+        }
+        std::printf("| our Dijkstra %zux%zu matrix (early stop, %u threads) | %.1f | %.1f | 1.00 |\n", n, n, cores,
+                    dijkstra_cpu, dijkstra_ms);
+        std::printf("| hierarchy many-to-many %zux%zu (%u threads) | %.1f | %.1f | %.1fx faster |\n", n, n, cores,
+                    hierarchy_cpu, hierarchy_ms, dijkstra_cpu / hierarchy_cpu);
+        if (differences != 0) std::printf("| MISMATCH between engines | %zu cells | | |\n", differences);
+    }
+    std::printf("\npeak memory: %.0f MiB\n", bench::peak_memory_mib());
+    return 0;
+}

@@ -1,0 +1,205 @@
+#include "router/hierarchy_query.hpp"
+
+#include <algorithm>
+#include <atomic>
+#include <functional>
+#include <thread>
+
+namespace ringroad::router {
+
+namespace {
+using HeapEntry = std::pair<PackedWeight, NodeId>;
+constexpr auto kHeapOrder = std::greater<HeapEntry>();
+}
+
+HierarchySearch::HierarchySearch(const ContractionHierarchy& hierarchy) : hierarchy_(&hierarchy) {
+    for (Side* side : {&forward_, &backward_}) {
+        side->distance.assign(hierarchy.node_count(), kUnreachableWeight);
+        side->parent.assign(hierarchy.node_count(), kNoNode);
+        side->stamp.assign(hierarchy.node_count(), 0);
+    }
+    backward_.forward = false;
+}
+
+void HierarchySearch::start(Side& side, std::span<const WeightedNode> starts) {
+    if (++side.query == 0) {
+        std::fill(side.stamp.begin(), side.stamp.end(), 0);
+        side.query = 1;
+    }
+    side.heap.clear();
+    for (const WeightedNode& start : starts) {
+        if (start.weight < side.label(start.node)) {
+            side.stamp[start.node] = side.query;
+            side.distance[start.node] = start.weight;
+            side.parent[start.node] = kNoNode;
+            side.heap.push_back({start.weight, start.node});
+            std::push_heap(side.heap.begin(), side.heap.end(), kHeapOrder);
+        }
+    }
+}
+
+bool HierarchySearch::pop(Side& side, NodeId& node, PackedWeight& weight) {
+    while (!side.heap.empty()) {
+        std::pop_heap(side.heap.begin(), side.heap.end(), kHeapOrder);
+        const HeapEntry entry = side.heap.back();
+        side.heap.pop_back();
+        if (entry.first != side.label(entry.second)) continue;   // superseded
+        weight = entry.first;
+        node = entry.second;
+        return true;
+    }
+    return false;
+}
+
+// Stall-on-demand: a higher node reached more cheaply proves this label is not a shortest
+// distance, so the search need not continue from it.
+bool HierarchySearch::stalled(const Side& side, NodeId node, PackedWeight weight) const {
+    const std::uint32_t inbound = side.forward ? kArcBackward : kArcForward;
+    for (const HierarchyArc& arc : hierarchy_->upward_arcs(node)) {
+        if (!(arc.directions & inbound)) continue;
+        const PackedWeight higher = side.label(arc.higher_node);
+        if (higher != kUnreachableWeight && higher + arc.weight < weight) return true;
+    }
+    return false;
+}
+
+void HierarchySearch::relax(Side& side, NodeId node, PackedWeight weight) {
+    const std::uint32_t outbound = side.forward ? kArcForward : kArcBackward;
+    for (const HierarchyArc& arc : hierarchy_->upward_arcs(node)) {
+        if (!(arc.directions & outbound)) continue;
+        const PackedWeight candidate = weight + arc.weight;
+        if (candidate < side.label(arc.higher_node)) {
+            side.stamp[arc.higher_node] = side.query;
+            side.distance[arc.higher_node] = candidate;
+            side.parent[arc.higher_node] = node;
+            side.heap.push_back({candidate, arc.higher_node});
+            std::push_heap(side.heap.begin(), side.heap.end(), kHeapOrder);
+        }
+    }
+}
+
+PackedWeight HierarchySearch::shortest(std::span<const WeightedNode> starts, std::span<const WeightedNode> ends,
+                                       std::vector<NodeId>* path) {
+    start(forward_, starts);
+    start(backward_, ends);
+    PackedWeight best = kUnreachableWeight;
+    NodeId meeting = kNoNode;
+    for (;;) {
+        const PackedWeight forward_min = forward_.heap.empty() ? kUnreachableWeight : forward_.heap.front().first;
+        const PackedWeight backward_min = backward_.heap.empty() ? kUnreachableWeight : backward_.heap.front().first;
+        const bool forward_open = forward_min < best;
+        const bool backward_open = backward_min < best;
+        if (!forward_open && !backward_open) break;
+        Side& side = forward_open && (!backward_open || forward_min <= backward_min) ? forward_ : backward_;
+        const Side& other = &side == &forward_ ? backward_ : forward_;
+        NodeId node = kNoNode;
+        PackedWeight weight = 0;
+        if (!pop(side, node, weight)) continue;
+        const PackedWeight other_label = other.label(node);
+        if (other_label != kUnreachableWeight && weight + other_label < best) {
+            best = weight + other_label;
+            meeting = node;
+        }
+        if (stalled(side, node, weight)) continue;
+        relax(side, node, weight);
+    }
+    if (path && meeting != kNoNode) {
+        path->clear();
+        std::vector<NodeId> climb{meeting};
+        for (NodeId node = meeting; forward_.parent[node] != kNoNode; node = forward_.parent[node]) {
+            climb.push_back(forward_.parent[node]);
+        }
+        std::reverse(climb.begin(), climb.end());
+        path->push_back(climb.front());
+        for (std::size_t i = 1; i < climb.size(); ++i) {
+            hierarchy_->unpack_arc(climb[i - 1], climb[i], forward_.distance[climb[i]] - forward_.distance[climb[i - 1]],
+                                   *path);
+        }
+        for (NodeId node = meeting; backward_.parent[node] != kNoNode; node = backward_.parent[node]) {
+            const NodeId next = backward_.parent[node];
+            hierarchy_->unpack_arc(node, next, backward_.distance[node] - backward_.distance[next], *path);
+        }
+    }
+    return best;
+}
+
+void HierarchySearch::upward_search(std::span<const WeightedNode> starts, bool forward,
+                                    std::vector<WeightedNode>& settled) {
+    Side& side = forward ? forward_ : backward_;
+    start(side, starts);
+    NodeId node = kNoNode;
+    PackedWeight weight = 0;
+    while (pop(side, node, weight)) {
+        if (stalled(side, node, weight)) continue;
+        settled.push_back({node, weight});
+        relax(side, node, weight);
+    }
+}
+
+namespace {
+
+// Runs body(search, index) for index in [0, count) on `threads` threads, each with its own search.
+template <typename Body>
+void parallel_for(const ContractionHierarchy& hierarchy, std::size_t count, unsigned threads, Body body) {
+    static_assert(std::is_invocable_v<Body&, HierarchySearch&, std::size_t>);
+    if (threads == 0) threads = std::max(1u, std::thread::hardware_concurrency());
+    threads = static_cast<unsigned>(std::min<std::size_t>(threads, std::max<std::size_t>(count, 1)));
+    std::atomic<std::size_t> next{0};
+    const auto worker = [&] {
+        HierarchySearch search(hierarchy);
+        for (std::size_t index = next++; index < count; index = next++) body(search, index);
+    };
+    std::vector<std::thread> pool;
+    for (unsigned t = 1; t < threads; ++t) pool.emplace_back(worker);
+    worker();
+    for (std::thread& thread : pool) thread.join();
+}
+
+struct BucketEntry {
+    std::uint32_t target;
+    PackedWeight weight;
+};
+
+} // namespace
+
+std::vector<PackedWeight> hierarchy_many_to_many(const ContractionHierarchy& hierarchy,
+                                                 const std::vector<std::vector<WeightedNode>>& starts,
+                                                 const std::vector<std::vector<WeightedNode>>& ends,
+                                                 unsigned threads) {
+    // Backward searches from every target fill the buckets.
+    std::vector<std::vector<WeightedNode>> reached(ends.size());
+    parallel_for(hierarchy, ends.size(), threads, [&](HierarchySearch& search, std::size_t target) {
+        search.upward_search(ends[target], /*forward=*/false, reached[target]);
+    });
+    const std::uint32_t node_count = hierarchy.node_count();
+    std::vector<std::uint32_t> first_entry(std::size_t{node_count} + 1, 0);
+    for (const auto& list : reached) {
+        for (const WeightedNode& entry : list) ++first_entry[entry.node + 1];
+    }
+    for (std::uint32_t node = 0; node < node_count; ++node) first_entry[node + 1] += first_entry[node];
+    std::vector<BucketEntry> buckets(first_entry.back());
+    {
+        std::vector<std::uint32_t> fill(first_entry.begin(), first_entry.end() - 1);
+        for (std::uint32_t target = 0; target < reached.size(); ++target) {
+            for (const WeightedNode& entry : reached[target]) buckets[fill[entry.node]++] = {target, entry.weight};
+        }
+    }
+    reached = {};
+
+    // Forward searches from every source scan them.
+    std::vector<PackedWeight> result(starts.size() * ends.size(), kUnreachableWeight);
+    parallel_for(hierarchy, starts.size(), threads, [&](HierarchySearch& search, std::size_t source) {
+        std::vector<WeightedNode> settled;
+        search.upward_search(starts[source], /*forward=*/true, settled);
+        PackedWeight* row = result.data() + source * ends.size();
+        for (const WeightedNode& entry : settled) {
+            for (std::uint32_t i = first_entry[entry.node]; i < first_entry[entry.node + 1]; ++i) {
+                const PackedWeight candidate = entry.weight + buckets[i].weight;
+                if (candidate < row[buckets[i].target]) row[buckets[i].target] = candidate;
+            }
+        }
+    });
+    return result;
+}
+
+} // namespace ringroad::router

@@ -1,0 +1,132 @@
+#include "router/routing_graph.hpp"
+
+#include <algorithm>
+#include <unordered_map>
+
+namespace ringroad::router {
+
+namespace {
+
+// Vertices touched by exactly one segment end: the only places a U-turn is allowed.
+std::vector<std::uint8_t> dead_ends(const graph::RoadGraph& road_graph) {
+    std::vector<std::uint32_t> segment_ends(road_graph.vertex_count(), 0);
+    for (const graph::Segment& segment : road_graph.segments()) {
+        if (segment.forward_edge == graph::kNoEdge && segment.backward_edge == graph::kNoEdge) continue;
+        ++segment_ends[segment.first_vertex];
+        ++segment_ends[segment.last_vertex];
+    }
+    std::vector<std::uint8_t> result(segment_ends.size());
+    for (std::size_t v = 0; v < segment_ends.size(); ++v) result[v] = segment_ends[v] == 1;
+    return result;
+}
+
+// The turn rules at one via vertex, looked up while expanding the edges that enter it.
+class TurnRules {
+public:
+    TurnRules(const graph::RoadGraph& road_graph, bool honour) {
+        if (!honour) return;
+        for (const graph::TurnRestriction& restriction : road_graph.turn_restrictions()) {
+            rules_by_via_[restriction.via_vertex].push_back(restriction);
+        }
+    }
+
+    bool allowed(graph::VertexId via, graph::SegmentId from, graph::SegmentId to) const {
+        const auto found = rules_by_via_.find(via);
+        if (found == rules_by_via_.end()) return true;
+        bool has_only_rule = false;
+        bool listed_by_only_rule = false;
+        for (const graph::TurnRestriction& rule : found->second) {
+            if (rule.from_segment != from) continue;
+            if (rule.kind == static_cast<std::uint8_t>(graph::RestrictionKind::no_turn)) {
+                if (rule.to_segment == to) return false;
+            } else {
+                has_only_rule = true;
+                listed_by_only_rule = listed_by_only_rule || rule.to_segment == to;
+            }
+        }
+        return !has_only_rule || listed_by_only_rule;
+    }
+
+private:
+    std::unordered_map<graph::VertexId, std::vector<graph::TurnRestriction>> rules_by_via_;
+};
+
+std::uint64_t fnv1a(std::uint64_t hash, std::uint64_t value) {
+    for (int byte = 0; byte < 8; ++byte) {
+        hash ^= (value >> (8 * byte)) & 0xffu;
+        hash *= 1099511628211ull;
+    }
+    return hash;
+}
+
+} // namespace
+
+bool should_honour_restrictions(const graph::RoadGraph& road_graph, RestrictionPolicy policy) {
+    switch (policy) {
+    case RestrictionPolicy::honour: return true;
+    case RestrictionPolicy::ignore: return false;
+    case RestrictionPolicy::automatic: break;
+    }
+    const std::string profile = road_graph.metadata_value("profile");
+    return profile.empty() || profile == "car";
+}
+
+RoutingGraph::RoutingGraph(const graph::RoadGraph& road_graph, RestrictionPolicy policy)
+    : honours_restrictions_(should_honour_restrictions(road_graph, policy)) {
+    const std::uint32_t node_count = road_graph.edge_count();
+    const auto edges = road_graph.edges();
+    const auto first_out = road_graph.first_out();
+    const std::vector<std::uint8_t> dead_end = dead_ends(road_graph);
+    const TurnRules turn_rules(road_graph, honours_restrictions_);
+
+    node_time_ds_.resize(node_count);
+    node_length_dm_.resize(node_count);
+    first_arc_.assign(node_count + 1, 0);
+    arc_head_.reserve(static_cast<std::size_t>(node_count) * 3);
+    for (NodeId node = 0; node < node_count; ++node) {
+        const graph::Edge& arriving = edges[node];
+        node_time_ds_[node] = arriving.time_ds;
+        node_length_dm_[node] = arriving.length_dm;
+        const graph::VertexId via = arriving.head;
+        for (std::uint32_t next = first_out[via]; next < first_out[via + 1]; ++next) {
+            const graph::Edge& leaving = edges[next];
+            const bool u_turn = leaving.segment == arriving.segment && next != node;
+            if (u_turn && !dead_end[via]) continue;
+            if (!turn_rules.allowed(via, arriving.segment, leaving.segment)) continue;
+            arc_head_.push_back(next);
+        }
+        first_arc_[node + 1] = static_cast<std::uint32_t>(arc_head_.size());
+    }
+
+    // Reverse adjacency by counting sort, so predecessors come out ordered by tail.
+    first_reverse_arc_.assign(node_count + 1, 0);
+    for (NodeId head : arc_head_) ++first_reverse_arc_[head + 1];
+    for (std::uint32_t node = 0; node < node_count; ++node) first_reverse_arc_[node + 1] += first_reverse_arc_[node];
+    reverse_arc_tail_.resize(arc_head_.size());
+    std::vector<std::uint32_t> fill(first_reverse_arc_.begin(), first_reverse_arc_.end() - 1);
+    for (NodeId tail = 0; tail < node_count; ++tail) {
+        for (std::uint32_t arc = first_arc_[tail]; arc < first_arc_[tail + 1]; ++arc) {
+            reverse_arc_tail_[fill[arc_head_[arc]]++] = tail;
+        }
+    }
+
+    for (Metric metric : {Metric::time, Metric::distance}) {
+        std::vector<PackedWeight>& weights = node_weights_[static_cast<int>(metric)];
+        weights.resize(node_count);
+        for (NodeId node = 0; node < node_count; ++node) {
+            weights[node] = pack_weight(metric, node_time_ds_[node], node_length_dm_[node]);
+        }
+    }
+
+    std::uint64_t hash = 14695981039346656037ull;
+    hash = fnv1a(hash, node_count);
+    hash = fnv1a(hash, arc_head_.size());
+    for (NodeId node = 0; node < node_count; ++node) {
+        hash = fnv1a(hash, (std::uint64_t{node_time_ds_[node]} << 32) | node_length_dm_[node]);
+        hash = fnv1a(hash, first_arc_[node + 1]);
+    }
+    for (NodeId head : arc_head_) hash = fnv1a(hash, head);
+    fingerprint_ = hash;
+}
+
+} // namespace ringroad::router

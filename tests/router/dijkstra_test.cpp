@@ -1,0 +1,113 @@
+// Our Dijkstra against the Boost Graph Library's dijkstra_shortest_paths (the outside
+// reference) on the same edge-based routing graph, for random street grids.
+#include "router/dijkstra.hpp"
+#include "router/routing_graph.hpp"
+#include "tests/router/bgl_reference.hpp"
+#include "tests/router/test_graphs.hpp"
+
+#include <catch2/catch.hpp>
+
+#include <random>
+
+using namespace ringroad;
+using namespace ringroad::router;
+
+namespace {
+
+void check_against_bgl(const RoutingGraph& routing_graph, Metric metric, std::uint32_t sources, std::uint64_t seed) {
+    const test::BglGraph reference = test::to_bgl(routing_graph, metric);
+    DijkstraWorkspace workspace(routing_graph.node_count());
+    std::mt19937_64 random(seed);
+    for (std::uint32_t round = 0; round < sources; ++round) {
+        const NodeId source = static_cast<NodeId>(random() % routing_graph.node_count());
+        const WeightedNode start{source, 0};
+        run_dijkstra(routing_graph, metric, {&start, 1}, {}, workspace);
+        const std::vector<std::uint64_t> expected = test::bgl_distances(reference, source);
+        std::size_t mismatches = 0;
+        for (NodeId node = 0; node < routing_graph.node_count(); ++node) {
+            const std::uint64_t ours = workspace.distance(node);
+            const std::uint64_t theirs =
+                expected[node] == std::numeric_limits<std::uint64_t>::max() ? kUnreachableWeight : expected[node];
+            mismatches += ours != theirs;
+        }
+        INFO("source node " << source);
+        REQUIRE(mismatches == 0);
+    }
+}
+
+} // namespace
+
+TEST_CASE("Dijkstra equals BGL dijkstra_shortest_paths on random grids, both metrics", "[dijkstra]") {
+    for (std::uint64_t seed : {1u, 2u, 3u}) {
+        test::RandomGridOptions options;
+        options.seed = seed;
+        options.rows = 25;
+        options.columns = 30;
+        const graph::RoadGraph road_graph = test::random_grid_graph(options);
+        const RoutingGraph routing_graph(road_graph, RestrictionPolicy::honour);
+        REQUIRE(routing_graph.node_count() > 1000);
+        check_against_bgl(routing_graph, Metric::time, 30, seed);
+        check_against_bgl(routing_graph, Metric::distance, 10, seed + 100);
+    }
+}
+
+TEST_CASE("Dijkstra's early stop leaves the targets exact and the workspace reusable", "[dijkstra]") {
+    test::RandomGridOptions options;
+    options.seed = 7;
+    const graph::RoadGraph road_graph = test::random_grid_graph(options);
+    const RoutingGraph routing_graph(road_graph, RestrictionPolicy::honour);
+    const test::BglGraph reference = test::to_bgl(routing_graph, Metric::time);
+    DijkstraWorkspace workspace(routing_graph.node_count());
+    std::mt19937_64 random(99);
+    std::uint64_t settled_full = 0, settled_early = 0;
+    for (int round = 0; round < 50; ++round) {
+        const NodeId source = static_cast<NodeId>(random() % routing_graph.node_count());
+        std::vector<NodeId> targets;
+        for (int t = 0; t < 3; ++t) targets.push_back(static_cast<NodeId>(random() % routing_graph.node_count()));
+        const WeightedNode start{source, 0};
+        run_dijkstra(routing_graph, Metric::time, {&start, 1}, targets, workspace);
+        settled_early += workspace.settled_count();
+        const std::vector<std::uint64_t> expected = test::bgl_distances(reference, source);
+        for (NodeId target : targets) {
+            const std::uint64_t theirs =
+                expected[target] == std::numeric_limits<std::uint64_t>::max() ? kUnreachableWeight : expected[target];
+            REQUIRE(workspace.distance(target) == theirs);
+            if (theirs != kUnreachableWeight) {
+                REQUIRE(workspace.is_settled(target));
+                // The tree path's weights add up to the label.
+                const std::vector<NodeId> path = workspace.tree_path(target);
+                REQUIRE(path.front() == source);
+                std::uint64_t sum = 0;
+                for (std::size_t i = 1; i < path.size(); ++i) sum += routing_graph.node_weight(Metric::time, path[i]);
+                REQUIRE(sum == theirs);
+            }
+        }
+        run_dijkstra(routing_graph, Metric::time, {&start, 1}, {}, workspace);
+        settled_full += workspace.settled_count();
+    }
+    // Stopping early must actually save work on average.
+    REQUIRE(settled_early < settled_full);
+}
+
+TEST_CASE("Dijkstra from several weighted starts takes the best start", "[dijkstra]") {
+    test::RandomGridOptions options;
+    options.seed = 11;
+    const graph::RoadGraph road_graph = test::random_grid_graph(options);
+    const RoutingGraph routing_graph(road_graph, RestrictionPolicy::honour);
+    const test::BglGraph reference = test::to_bgl(routing_graph, Metric::time);
+    const NodeId a = 5, b = routing_graph.node_count() / 2;
+    const std::uint64_t offset_a = pack_weight(Metric::time, 120, 300);
+    const std::uint64_t offset_b = pack_weight(Metric::time, 40, 100);
+    const WeightedNode starts[] = {{a, offset_a}, {b, offset_b}};
+    DijkstraWorkspace workspace(routing_graph.node_count());
+    run_dijkstra(routing_graph, Metric::time, starts, {}, workspace);
+    const auto from_a = test::bgl_distances(reference, a);
+    const auto from_b = test::bgl_distances(reference, b);
+    for (NodeId node = 0; node < routing_graph.node_count(); ++node) {
+        const std::uint64_t inf = std::numeric_limits<std::uint64_t>::max();
+        const std::uint64_t via_a = from_a[node] == inf ? inf : from_a[node] + offset_a;
+        const std::uint64_t via_b = from_b[node] == inf ? inf : from_b[node] + offset_b;
+        const std::uint64_t expected = std::min(via_a, via_b);
+        REQUIRE(workspace.distance(node) == (expected == inf ? kUnreachableWeight : expected));
+    }
+}
