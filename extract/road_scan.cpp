@@ -147,12 +147,21 @@ CollectedRoads scan_osm_file(const std::string& path, const Profile& profile, Pr
     CollectedRoads roads;
     try {
         scan_passes(file, profile, progress, roads);
+    } catch (const osmium::pbf_error& error) {
+        throw InputError(path + ": truncated or corrupt PBF file (" + one_line(error.what()) + ")");
+    } catch (const osmium::xml_error& error) {
+        throw InputError(path + ": not valid OSM XML (" + one_line(error.what()) + ")");
+    } catch (const osmium::gzip_error& error) {
+        throw InputError(path + ": truncated or corrupt gzip data (" + one_line(error.what()) + ")");
+    } catch (const osmium::bzip2_error& error) {
+        throw InputError(path + ": truncated or corrupt bzip2 data (" + one_line(error.what()) + ")");
     } catch (const osmium::io_error& error) {
-        throw InputError(path + ": not a readable OSM file, or truncated or corrupt: " + one_line(error.what()));
+        // zlib failures inside PBF blobs land here too.
+        throw InputError(path + ": cannot be read as OSM data, truncated or corrupt (" + one_line(error.what()) + ")");
     } catch (const protozero::exception& error) {
-        throw InputError(path + ": truncated or corrupt: " + one_line(error.what()));
+        throw InputError(path + ": truncated or corrupt PBF file (" + one_line(error.what()) + ")");
     } catch (const std::system_error& error) {
-        throw InputError(path + ": cannot read: " + one_line(error.what()));
+        throw InputError(path + ": cannot read (" + one_line(error.what()) + ")");
     }
     return roads;
 }

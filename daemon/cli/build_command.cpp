@@ -11,6 +11,7 @@
 
 #include <CLI/CLI.hpp>
 
+#include <fcntl.h>
 #include <unistd.h>
 
 #include <cstdio>
@@ -38,9 +39,12 @@ void check_output_folder(const std::string& output) {
     if (!fs::is_directory(folder, error)) {
         throw InputError(output + ": output folder '" + folder.string() + "' does not exist");
     }
-    if (::access(folder.c_str(), W_OK) != 0) {
-        throw InputError(output + ": output folder '" + folder.string() + "' is not writable");
-    }
+    // Try it rather than ask access(): root passes access() even where nothing can be created.
+    const fs::path probe = folder / (".ringroad-write-check-" + std::to_string(::getpid()));
+    const int descriptor = ::open(probe.c_str(), O_WRONLY | O_CREAT | O_EXCL, 0600);
+    if (descriptor < 0) throw InputError(output + ": output folder '" + folder.string() + "' is not writable");
+    ::close(descriptor);
+    fs::remove(probe, error);
     if (fs::is_directory(output, error)) throw InputError(output + ": is a folder, not a file name");
 }
 
