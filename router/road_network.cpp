@@ -279,6 +279,21 @@ void check_sites(const graph::RoadGraph& graph, const std::vector<NetworkSite>& 
     }
 }
 
+// A site splits its segment for the search; where the network runs on through the site, the two
+// stretches become one piece again (lengths add exactly: both use rounded positions).
+void merge_touching_pieces(std::vector<NetworkPiece>& pieces) {
+    std::vector<NetworkPiece> merged;
+    for (const NetworkPiece& piece : pieces) {
+        if (!merged.empty() && merged.back().segment == piece.segment && merged.back().to_fraction == piece.from_fraction) {
+            merged.back().to_fraction = piece.to_fraction;
+            merged.back().length_dm += piece.length_dm;
+        } else {
+            merged.push_back(piece);
+        }
+    }
+    pieces = std::move(merged);
+}
+
 } // namespace
 
 std::vector<graph::SegmentId> RoadNetwork::segments() const {
@@ -321,6 +336,7 @@ RoadNetwork plan_road_network(const graph::RoadGraph& graph, const std::vector<N
     std::sort(network.pieces.begin(), network.pieces.end(), [](const NetworkPiece& x, const NetworkPiece& y) {
         return std::pair(x.segment, x.from_fraction) < std::pair(y.segment, y.from_fraction);
     });
+    merge_touching_pieces(network.pieces);
     return network;
 }
 

@@ -53,7 +53,8 @@ struct NetworkPiece {
 struct RoadNetwork {
     std::vector<NetworkLink> links;          // spanning tree of the sites (Kruskal order)
     std::uint64_t link_length_sum_dm = 0;    // sum of the links' lengths
-    std::vector<NetworkPiece> pieces;        // unique road pieces, by segment then fraction
+    std::vector<NetworkPiece> pieces;        // unique road pieces, by segment then fraction;
+                                             // touching stretches of one segment are merged
     std::uint64_t road_length_dm = 0;        // sum of the pieces' lengths
     // Shared road counted once: link_length_sum_dm - road_length_dm (never negative).
     std::uint64_t saving_dm() const { return link_length_sum_dm - road_length_dm; }
