@@ -72,8 +72,9 @@ bool improve_by_directed_or_opt(SearchState& state, int city) {
             const int s2 = tour.at(tour.position(s1) + length - 1);
             const int p = tour.previous(s1);
             const int n = tour.next(s2);
+            // No pruning on the removal gain: without the triangle inequality (travel times
+            // often lack it) an insertion can gain more than the removal loses.
             const double removal_gain = state.c(p, s1) + state.c(s2, n) - state.c(p, n);
-            if (removal_gain <= state.epsilon) continue;
             auto outside = [&](int other) { return tour.forward_distance(s1, other) >= length; };
             auto try_gap = [&](int x, int y) {
                 ++tour.work;

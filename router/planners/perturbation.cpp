@@ -43,8 +43,14 @@ IteratedSearchResult polish_tour(const CostMatrix& costs, const CandidateLists& 
     ArrayTour tour(start);
     ActiveCities active(start.size());
     SearchState state{costs, successors, predecessors, tour, active, settings.epsilon, closed_tour_cost(costs, start)};
-    for (int city : start) active.push(city);
-    run_local_search(state, settings.symmetric);
+    // Don't-look bits can miss a move whose cities' own links did not change, so sweep over
+    // every city again until a whole sweep finds nothing: a true local optimum of the moves.
+    double before_sweep = 0.0;
+    do {
+        before_sweep = state.cost;
+        for (int city : tour.cities()) active.push(city);
+        run_local_search(state, settings.symmetric);
+    } while (state.cost < before_sweep - settings.epsilon);
     IteratedSearchResult result;
     result.tour = tour.cities();
     result.cost = closed_tour_cost(costs, result.tour);

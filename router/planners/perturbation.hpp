@@ -28,7 +28,8 @@ struct IteratedSearchSettings {
     double epsilon = 1e-9;
 };
 
-// Local search only (no kicks): returns the locally optimal tour and its cost.
+// Local search only (no kicks), repeated over all cities until a full sweep finds no
+// improving move: returns the locally optimal tour and its cost.
 IteratedSearchResult polish_tour(const CostMatrix& costs, const CandidateLists& successors,
                                  const CandidateLists& predecessors, const ClosedTour& tour,
                                  const IteratedSearchSettings& settings);
