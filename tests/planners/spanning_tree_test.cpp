@@ -4,6 +4,8 @@
 #include "router/planners/spanning_tree.hpp"
 
 #include "common/input_error.hpp"
+#include "tests/support/run_command.hpp"
+#include "tests/support/tsplib_reader.hpp"
 
 #include <boost/graph/adjacency_list.hpp>
 #include <boost/graph/kruskal_min_spanning_tree.hpp>
@@ -12,6 +14,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <filesystem>
 #include <iterator>
 #include <numeric>
 #include <random>
@@ -88,6 +91,28 @@ TEST_CASE("spanning tree weight equals Boost's kruskal_minimum_spanning_tree on 
             CHECK(sum == Approx(forest.cost));
         }
     }
+}
+
+TEST_CASE("spanning tree weight equals Boost's Kruskal on every shipped TSPLIB instance") {
+    std::size_t instances = 0;
+    for (const char* folder : {"tsplib/symmetric", "tsplib/asymmetric"}) {
+        for (const auto& entry : std::filesystem::directory_iterator(ringroad::test::fixture_path(folder))) {
+            const std::string extension = entry.path().extension().string();
+            if (extension != ".tsp" && extension != ".atsp") continue;
+            auto instance = ringroad::test::read_tsplib_file(entry.path().string());
+            for (std::size_t i = 0; i < instance.costs.size(); ++i) instance.costs(i, i) = 0.0;
+            INFO(instance.name);
+            for (const LinkCostRule rule : {LinkCostRule::cheaper_direction, LinkCostRule::dearer_direction}) {
+                const auto forest = minimum_spanning_forest(instance.costs, rule);
+                CHECK(forest.component_count == 1);
+                // Boost Graph Library kruskal_minimum_spanning_tree on the same TSPLIB 95 matrix;
+                // integer distances, so the sums agree exactly.
+                CHECK(forest.cost == boost_spanning_weight(instance.costs, rule));
+            }
+            ++instances;
+        }
+    }
+    CHECK(instances >= 30);
 }
 
 TEST_CASE("with missing entries the spanning forest matches Boost's forest") {
