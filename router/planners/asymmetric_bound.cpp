@@ -11,7 +11,10 @@ AsymmetricBound asymmetric_lower_bound(const CostMatrix& costs, double upper_bou
                                        double unusable) {
     const std::size_t n = costs.size();
     AsymmetricBound bound;
-    bound.assignment = assignment_bound(costs);
+    // The Hungarian method is O(n^3) and outside the work budget; above this size the 1-tree
+    // bound alone is used (it is the stronger one whenever its iterations converge).
+    constexpr std::size_t kLargestAssignment = 600;
+    if (n <= kLargestAssignment) bound.assignment = assignment_bound(costs);
     // Cities 0..n-1 are the "in" copies, n..2n-1 the "out" copies.
     CostMatrix doubled(2 * n, unusable);
     std::vector<int> partner(2 * n);

@@ -1,5 +1,6 @@
 #pragma once
-// Lower bound for asymmetric costs: the better of the assignment bound and the Held–Karp bound
+// Lower bound for asymmetric costs: the better of the assignment bound (up to 600 cities, as it
+// takes O(n^3) time) and the Held–Karp bound
 // of the asymmetric problem, computed as the 1-tree bound of its symmetric transformation
 // (Jonker & Volgenant 1983): city i becomes i_in and i_out joined by a forced edge of cost 0;
 // i_out-j_in costs c(i,j); in-in and out-out edges are unusable. A tour of the 2n cities that

@@ -77,13 +77,21 @@ ClosedTour nearest_neighbour_tour(const CostMatrix& costs, int start) {
     return tour;
 }
 
-ClosedTour greedy_edge_tour(const CostMatrix& costs, bool symmetric) {
+ClosedTour greedy_edge_tour(const CostMatrix& costs, bool symmetric, const CandidateLists* candidates) {
     const std::size_t n = costs.size();
     std::vector<std::tuple<double, int, int>> links;
-    links.reserve(symmetric ? n * (n - 1) / 2 : n * (n - 1));
-    for (std::size_t from = 0; from < n; ++from)
-        for (std::size_t to = symmetric ? from + 1 : 0; to < n; ++to)
-            if (from != to) links.emplace_back(costs(from, to), static_cast<int>(from), static_cast<int>(to));
+    if (candidates != nullptr) {
+        for (std::size_t from = 0; from < n; ++from)
+            for (const int* to = candidates->begin(static_cast<int>(from)); to != candidates->end(static_cast<int>(from)); ++to)
+                if (!symmetric || static_cast<std::size_t>(*to) > from ||
+                    std::find(candidates->begin(*to), candidates->end(*to), static_cast<int>(from)) == candidates->end(*to))
+                    links.emplace_back(costs(from, static_cast<std::size_t>(*to)), static_cast<int>(from), *to);
+    } else {
+        links.reserve(symmetric ? n * (n - 1) / 2 : n * (n - 1));
+        for (std::size_t from = 0; from < n; ++from)
+            for (std::size_t to = symmetric ? from + 1 : 0; to < n; ++to)
+                if (from != to) links.emplace_back(costs(from, to), static_cast<int>(from), static_cast<int>(to));
+    }
     std::sort(links.begin(), links.end());
 
     DisjointSets fragments(n);

@@ -4,13 +4,15 @@
 //  * greedy edge (the "greedy" matching heuristic of Johnson & McGeoch): take connections in
 //    order of cost whenever they keep every city at most one way in and one way out (both ends
 //    for symmetric costs) and close no early cycle; the fragments are then chained by nearest
-//    neighbour between fragment ends.
+//    neighbour between fragment ends. With candidate lists, only candidate connections are
+//    considered (O(n k log(n k)) instead of O(n^2 log n) time and memory, for large matrices).
 
+#include "router/planners/candidate_lists.hpp"
 #include "router/planners/closed_tour.hpp"
 
 namespace ringroad::planners {
 
 ClosedTour nearest_neighbour_tour(const CostMatrix& costs, int start);
-ClosedTour greedy_edge_tour(const CostMatrix& costs, bool symmetric);
+ClosedTour greedy_edge_tour(const CostMatrix& costs, bool symmetric, const CandidateLists* candidates = nullptr);
 
 } // namespace ringroad::planners

@@ -20,21 +20,23 @@
 namespace ringroad::planners {
 namespace {
 
-// Work units a second of time limit buys (measured on the development machine: a 2-core
-// x86-64 VM; see bench/tour_bench.cpp for the measured seconds). Fixed, so results never
-// depend on the machine's speed or load.
+// Work units a second of time limit buys (measured on the development machine, a shared 2-core
+// x86-64 VM: about 1 CPU second per second of limit, see bench/tour_bench.cpp). Fixed, so
+// results never depend on the machine's speed or load.
 constexpr double kWorkUnitsPerSecond = 120e6;
-// The dense Held–Karp bound costs about n^2 units per subgradient iteration.
+// Share of the budget for the Held–Karp bound's subgradient iterations.
 constexpr double kBoundShareOfBudget = 0.3;
 constexpr double kBoundUnitsPerEntry = 0.5;
-constexpr std::size_t kFewestBoundIterations = 50;
+constexpr std::size_t kFewestBoundIterations = 10;
 constexpr std::size_t kMostBoundIterations = 3000;
 // Trips this small are always solved exactly: the heuristics need room for their moves.
 constexpr std::size_t kAlwaysExactStops = 5;
 constexpr std::size_t kCandidatesPerCity = 10;
-// Christofides' matching is O(k^3) on the k odd tree vertices; beyond this many cities the
-// other constructions are used alone.
+// Christofides' matching sorts all k^2 pairs of the k odd tree vertices; beyond this many
+// cities the other constructions are used alone.
 constexpr std::size_t kLargestChristofides = 1200;
+// Above this many cities greedy edge looks at candidate connections only (memory).
+constexpr std::size_t kLargestAllPairsGreedy = 1500;
 
 void validate(const CostMatrix& costs, const TourRequest& request) {
     const std::size_t n = costs.size();
@@ -152,9 +154,11 @@ struct Construction {
     ClosedTour tour;
 };
 
-std::vector<Construction> construct_tours(const ClosedTripProblem& problem, bool symmetric) {
+std::vector<Construction> construct_tours(const ClosedTripProblem& problem, bool symmetric,
+                                         const CandidateLists& nearest) {
     std::vector<Construction> tours;
-    tours.push_back({"greedy-edge", greedy_edge_tour(problem.costs, symmetric)});
+    const bool large = problem.costs.size() > kLargestAllPairsGreedy;
+    tours.push_back({"greedy-edge", greedy_edge_tour(problem.costs, symmetric, large ? &nearest : nullptr)});
     if (symmetric && problem.costs.size() <= kLargestChristofides)
         tours.push_back({"christofides-greedy-matching", christofides_tour(problem.costs, problem.start)});
     tours.push_back({"nearest-neighbour", nearest_neighbour_tour(problem.costs, problem.start)});
@@ -204,7 +208,7 @@ TourResult plan_heuristically(const CostMatrix& costs, const CostMatrix& finite,
     std::uint64_t work_spent = 4 * static_cast<std::uint64_t>(problem.costs.size() * problem.costs.size());
     IteratedSearchResult best;
     std::string construction;
-    for (const Construction& start : construct_tours(problem, symmetric)) {
+    for (const Construction& start : construct_tours(problem, symmetric, nearest)) {
         const IteratedSearchResult polished = polish_tour(problem.costs, nearest, nearest_in, start.tour, settings);
         work_spent += polished.work;
         if (construction.empty() || polished.cost < best.cost) {

@@ -6,9 +6,9 @@
 //  * otherwise constructions + local search + iterated perturbation until the time limit,
 //    deterministic for a given seed, with the Held–Karp 1-tree bound (symmetric) or the
 //    assignment bound and the Held–Karp bound of the asymmetric problem (asymmetric).
-// Determinism: the time limit is converted into a budget of work units (move evaluations and
-// array steps, calibrated so that one second of budget takes about one second on a 2020s
-// desktop core). The search stops when the budget is spent, so the same matrix, request and seed
+// Determinism: the time limit is converted into a budget of work units (move evaluations,
+// array steps and bound matrix entries, calibrated so that one second of budget takes about one
+// CPU second on the development machine). The search stops when the budget is spent, so the same matrix, request and seed
 // give the same tour on any machine and under any load; the elapsed time only approximates the
 // limit. `work_limit` replaces that conversion by an explicit budget.
 
