@@ -28,6 +28,7 @@ using PlaneSegment = bg::model::segment<PlanePoint>;
 
 constexpr double kMetersPerDegree = graph::kEarthMeanRadiusMeters * std::numbers::pi / 180.0;
 constexpr std::size_t kCandidates = 8;   // R-tree neighbours re-ranked by haversine
+constexpr double kBoundsMarginMeters = 2000.0;
 
 // One straight piece of a segment's geometry.
 struct Piece {
@@ -128,9 +129,14 @@ bool RoadSnapper::nearest(double lat, double lon, SnappedStop& result) const {
         double t = squared > 0.0 ? ((bg::get<0>(query) - bg::get<0>(pa)) * dx + (bg::get<1>(query) - bg::get<1>(pa)) * dy) / squared
                                  : 0.0;
         t = std::clamp(t, 0.0, 1.0);
-        const graph::Coordinate foot{
+        graph::Coordinate foot{
             static_cast<std::int32_t>(std::lround(a.lat_e7 + t * (static_cast<double>(b.lat_e7) - a.lat_e7))),
             static_cast<std::int32_t>(std::lround(a.lon_e7 + t * (static_cast<double>(b.lon_e7) - a.lon_e7)))};
+        // On an end point to the 1e-7 degree: say so exactly, so a stop on a junction is one.
+        if (foot == a) t = 0.0;
+        if (foot == b) t = 1.0;
+        if (t == 0.0) foot = a;
+        if (t == 1.0) foot = b;
         const double meters = graph::haversine_meters(requested, foot);
         if (meters >= best_meters) continue;
         best_meters = meters;
@@ -153,7 +159,9 @@ SnappedStop RoadSnapper::snap(std::string_view stop_id, double lat, double lon, 
     check_coordinate_range(lat, lon, name);
     const Bounds& bounds = index_->bounds;
     if (bounds.known) {
-        const double margin_lat = radius_meters / kMetersPerDegree;
+        // Widened so that a stop just outside the region still gets the more useful "n m from the
+        // nearest road"; far outside (swapped coordinates, another region) it gets this.
+        const double margin_lat = std::max(2.0 * radius_meters, kBoundsMarginMeters) / kMetersPerDegree;
         const double margin_lon = margin_lat / std::max(index_->reference_cos_lat, 0.01);
         if (lat < bounds.min_lat - margin_lat || lat > bounds.max_lat + margin_lat ||
             lon < bounds.min_lon - margin_lon || lon > bounds.max_lon + margin_lon) {

@@ -39,7 +39,7 @@ public:
 
     // Throws InputError naming `stop_id`: coordinates not finite or out of range ("stop 'a':
     // latitude 91 is outside [-90, 90]"), outside the region's bounds (metadata "bbox", widened
-    // by the snap radius), or farther than `radius_meters` from every road ("stop 'a' is 812 m
+    // by twice the snap radius or 2 km, whichever is more), or farther than `radius_meters` from every road ("stop 'a' is 812 m
     // from the nearest road (snap radius 500 m)").
     SnappedStop snap(std::string_view stop_id, double lat, double lon, double radius_meters) const;
 
