@@ -103,6 +103,21 @@ int main(int argc, char** argv) {
         if (t.count > 0)
             std::printf("%-10s %9.3f %9.3f %10.3f %10.2f %12.3f %12.3f\n", family.c_str(), t.tour_gap / t.count,
                         t.worst_gap, t.bound_gap / t.count, t.doubling_gap / t.count, t.seconds / t.count, t.cpu / t.count);
+    // The exact solver at its default limit (16 stops) and its maximum (20 stops: the first 20
+    // cities of ulysses22), closed tours, against the published optimum where there is one.
+    for (const std::size_t stops : {std::size_t{16}, std::size_t{20}}) {
+        const auto instance = ringroad::test::read_tsplib_file(root + "symmetric/" + (stops == 16 ? "ulysses16" : "ulysses22") + ".tsp");
+        ringroad::planners::CostMatrix part(stops, 0.0);
+        for (std::size_t i = 0; i < stops; ++i)
+            for (std::size_t j = 0; j < stops; ++j) part(i, j) = instance.costs(i, j);
+        TourRequest exact = request;
+        exact.exact_limit = stops;
+        const double memory_before = ringroad::bench::peak_memory_mib();
+        const auto result = ringroad::planners::plan_tour(part, exact);
+        std::printf("held-karp %2zu stops: cost %.0f%s in %.3f s, peak memory %.1f MiB (before: %.1f MiB)\n", stops,
+                    result.cost, stops == 16 ? " (published optimum 6859)" : "", result.elapsed_seconds,
+                    ringroad::bench::peak_memory_mib(), memory_before);
+    }
     std::printf("peak memory: %.1f MiB\n", ringroad::bench::peak_memory_mib());
     return 0;
 }

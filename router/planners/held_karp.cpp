@@ -20,7 +20,8 @@ bool fits_unsigned_table(const CostMatrix& costs) {
             if (value < 0.0 || value != std::floor(value)) return false;
             largest = std::max(largest, value);
         }
-    const double sentinel = static_cast<double>(std::numeric_limits<std::uint32_t>::max());
+    // Below half the range, so two entries add without overflow and no infinity checks are needed.
+    const double sentinel = static_cast<double>(std::numeric_limits<std::uint32_t>::max() / 2);
     return largest * static_cast<double>(costs.size() + 1) < sentinel;
 }
 
@@ -28,16 +29,19 @@ template <typename Value>
 struct ValueTraits {
     static_assert(std::is_same_v<Value, std::uint32_t> || std::is_same_v<Value, double>,
                   "the Held–Karp table holds uint32 (exact integers) or double costs");
+    // uint32: "infinite" is half the range; sums of two entries stay below 2^32 and are
+    // clamped back, so the inner loop is a plain add and min.
     static Value infinite() {
         if constexpr (std::is_same_v<Value, double>) return kMissingCost;
-        else return std::numeric_limits<Value>::max();
+        else return std::numeric_limits<Value>::max() / 2;
     }
     static Value from(double cost) { return std::isfinite(cost) ? static_cast<Value>(cost) : infinite(); }
-    static Value add(Value a, Value b) {
-        if constexpr (std::is_same_v<Value, double>) return a + b;
-        else return (a == infinite() || b == infinite()) ? infinite() : a + b;
+    static Value add(Value a, Value b) { return a + b; }
+    static Value clamp(Value v) {
+        if constexpr (std::is_same_v<Value, double>) return v;
+        else return std::min(v, infinite());
     }
-    static double to_double(Value v) { return v == infinite() ? kMissingCost : static_cast<double>(v); }
+    static double to_double(Value v) { return v >= infinite() ? kMissingCost : static_cast<double>(v); }
 };
 
 template <typename Value>
@@ -63,13 +67,14 @@ HeldKarpResult solve(const CostMatrix& costs, std::size_t start, TripShape shape
         for (std::size_t j = 0; j < m; ++j) {
             if (!(mask >> j & 1)) continue;
             const std::size_t previous = mask ^ (std::size_t{1} << j);
+            const Value* row = &table[previous * m];
             Value best = Traits::infinite();
-            for (std::size_t k = 0; k < m; ++k) {
-                if (!(previous >> k & 1)) continue;
-                const Value candidate = Traits::add(table[previous * m + k], between[k * m + j]);
+            for (std::size_t bits = previous; bits != 0; bits &= bits - 1) {
+                const auto k = static_cast<std::size_t>(__builtin_ctzll(bits));
+                const Value candidate = Traits::add(row[k], between[k * m + j]);
                 if (candidate < best) best = candidate;
             }
-            table[mask * m + j] = best;
+            table[mask * m + j] = Traits::clamp(best);
         }
     }
 
@@ -79,7 +84,7 @@ HeldKarpResult solve(const CostMatrix& costs, std::size_t start, TripShape shape
     for (std::size_t j = 0; j < m; ++j) {
         if (shape == TripShape::open_fixed_end && others[j] != end) continue;
         Value total = table[full * m + j];
-        if (shape == TripShape::closed) total = Traits::add(total, Traits::from(costs(others[j], start)));
+        if (shape == TripShape::closed) total = Traits::clamp(Traits::add(total, Traits::from(costs(others[j], start))));
         if (total < best_total) {
             best_total = total;
             last = j;
@@ -99,7 +104,7 @@ HeldKarpResult solve(const CostMatrix& costs, std::size_t start, TripShape shape
         const std::size_t previous = mask ^ (std::size_t{1} << current);
         for (std::size_t k = 0; k < m; ++k) {
             if (!(previous >> k & 1)) continue;
-            if (Traits::add(table[previous * m + k], between[k * m + current]) == table[mask * m + current]) {
+            if (Traits::clamp(Traits::add(table[previous * m + k], between[k * m + current])) == table[mask * m + current]) {
                 current = k;
                 break;
             }

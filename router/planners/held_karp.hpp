@@ -2,7 +2,7 @@
 // held_karp: the exact optimum by the Held–Karp dynamic programme (Held & Karp 1962; Bellman
 // 1962) over subsets of stops, for closed tours and open trips (fixed or free end).
 // Time O(2^n n^2), memory 2^(n-1) (n-1) table entries. The table holds uint32 costs when every
-// entry is a non-negative integer and n times the largest entry fits below 2^32 - 1 (exact, 4
+// entry is a non-negative integer and n+1 times the largest entry stays below 2^31 (exact, 4
 // bytes an entry: 38 MiB at 20 stops), otherwise doubles (8 bytes: 76 MiB at 20 stops).
 // Entries may be +infinity (missing); the result cost is then +infinity when no order avoids them.
 

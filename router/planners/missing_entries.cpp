@@ -65,24 +65,24 @@ void check_stops_connectable(const CostMatrix& costs, const TourRequest& request
         const bool must_leave = closed || (request.shape == TripShape::open_fixed_end ? stop != finish : stop == request.start);
         const bool must_enter = closed || stop != request.start;
         if (must_leave && !can_leave)
-            throw InputError("no tour exists: stop " + std::to_string(stop) + " has no connection to any other stop",
+            throw InputError("no tour exists: " + describe_stop(request, stop) + " has no connection to any other stop",
                              "stops");
         if (must_enter && !can_enter)
-            throw InputError("no tour exists: stop " + std::to_string(stop) + " has no connection from any other stop",
+            throw InputError("no tour exists: " + describe_stop(request, stop) + " has no connection from any other stop",
                              "stops");
     }
     const std::vector<bool> from_start = reachable(costs, request.start, false);
     for (std::size_t stop = 0; stop < n; ++stop)
         if (!from_start[stop])
-            throw InputError("no tour exists: stop " + std::to_string(stop) + " cannot be reached from the start stop " +
-                                 std::to_string(request.start),
+            throw InputError("no tour exists: " + describe_stop(request, stop) + " cannot be reached from the start " +
+                                 describe_stop(request, request.start),
                              "stops");
     if (closed || request.shape == TripShape::open_fixed_end) {
         const std::vector<bool> to_finish = reachable(costs, finish, true);
         for (std::size_t stop = 0; stop < n; ++stop)
             if (!to_finish[stop])
-                throw InputError("no tour exists: stop " + std::to_string(stop) + " cannot reach the " +
-                                     (closed ? "start" : "end") + " stop " + std::to_string(finish),
+                throw InputError("no tour exists: " + describe_stop(request, stop) + " cannot reach the " +
+                                     (closed ? "start " : "end ") + describe_stop(request, finish),
                                  "stops");
     }
 }

@@ -47,6 +47,10 @@ void validate(const CostMatrix& costs, const TourRequest& request) {
     if (request.shape == TripShape::open_fixed_end && request.end >= n)
         throw InputError("end stop index " + std::to_string(request.end) + " is outside 0.." + std::to_string(n - 1),
                          "end");
+    if (!request.stop_labels.empty() && request.stop_labels.size() != n)
+        throw InputError("stop labels: " + std::to_string(request.stop_labels.size()) + " labels for " +
+                             std::to_string(n) + " stops",
+                         "stops");
     if (request.exact_limit > kHeldKarpMaximumStops)
         throw InputError("exact limit " + std::to_string(request.exact_limit) + " is above the maximum of " +
                              std::to_string(kHeldKarpMaximumStops) + " stops",
@@ -57,7 +61,7 @@ void validate(const CostMatrix& costs, const TourRequest& request) {
         for (std::size_t to = 0; to < n; ++to) {
             const double value = costs(from, to);
             if (from != to && (std::isnan(value) || value < 0.0))
-                throw InputError("cost from stop " + std::to_string(from) + " to stop " + std::to_string(to) +
+                throw InputError("cost from " + describe_stop(request, from) + " to " + describe_stop(request, to) +
                                      " is not a non-negative number",
                                  "matrix");
         }
@@ -99,7 +103,7 @@ void describe_trip(const CostMatrix& costs, const TourRequest& request, std::vec
         const std::size_t from = result.order[k], to = result.order[(k + 1) % n];
         if (!costs.has(from, to))
             throw InputError("no tour exists that uses only available connections: the best order found needs the "
-                             "missing connection from stop " + std::to_string(from) + " to stop " + std::to_string(to),
+                             "missing connection from " + describe_stop(request, from) + " to " + describe_stop(request, to),
                              "stops");
         result.hop_costs.push_back(costs(from, to));
         result.cost += costs(from, to);
@@ -237,6 +241,11 @@ TourResult plan_heuristically(const CostMatrix& costs, const CostMatrix& finite,
 }
 
 } // namespace
+
+std::string describe_stop(const TourRequest& request, std::size_t index) {
+    if (index < request.stop_labels.size()) return "stop '" + request.stop_labels[index] + "'";
+    return "stop " + std::to_string(index);
+}
 
 TourResult plan_tour(const CostMatrix& costs, const TourRequest& request) {
     const auto started = std::chrono::steady_clock::now();

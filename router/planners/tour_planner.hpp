@@ -40,7 +40,12 @@ struct TourRequest {
     TourMethod method = TourMethod::automatic;
     std::optional<std::uint64_t> work_limit;  // explicit search budget in work units; when set
                                               // the time limit is not used for the search
+    std::vector<std::string> stop_labels;     // optional: names for error messages ("stop 'A7'"),
+                                              // one per matrix row; empty means "stop <index>"
 };
+
+// "stop 'label'" when the request labels its stops, else "stop <index>".
+std::string describe_stop(const TourRequest& request, std::size_t index);
 
 struct TourResult {
     std::vector<std::size_t> order;      // stop indices, order[0] == start; a closed tour does not

@@ -172,6 +172,14 @@ TEST_CASE("missing entries never appear in a tour; impossible tours name a stop"
         for (std::size_t j = 0; j < 30; ++j)
             if (j != 7) costs(7, j) = costs(j, 7) = planners::kMissingCost;
         CHECK(error_message(costs, budgeted(1'000'000)).find("stop 7") != std::string::npos);
+        planners::TourRequest labelled = budgeted(1'000'000);
+        for (std::size_t k = 0; k < 30; ++k) {
+            labelled.stop_labels.emplace_back(1, 'S');
+            labelled.stop_labels.back() += std::to_string(k);
+        }
+        CHECK(error_message(costs, labelled).find("stop 'S7'") != std::string::npos);
+        labelled.stop_labels.pop_back();
+        CHECK(error_message(costs, labelled).find("29 labels for 30 stops") != std::string::npos);
     }
     SECTION("a stop that cannot be reached from the start") {
         auto costs = test::random_matrix(30, false, random);
