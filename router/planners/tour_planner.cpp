@@ -181,62 +181,90 @@ TourResult plan_exactly(const CostMatrix& costs, const CostMatrix& finite, const
     return result;
 }
 
-TourResult plan_heuristically(const CostMatrix& costs, const CostMatrix& finite, bool symmetric,
-                              const TourRequest& request, double ceiling) {
-    const double unusable = 3.0 * ceiling;
-    const ClosedTripProblem problem = close_trip(finite, symmetric, request, ceiling, unusable);
-    const double budget = request.work_limit ? static_cast<double>(*request.work_limit)
-                                             : request.time_limit_seconds * kWorkUnitsPerSecond;
-    const bool integral = all_integral(costs);
-    const double epsilon = integral ? 0.5 : 1e-9 * ceiling;
+struct SearchContext {
+    ClosedTripProblem problem;
+    bool symmetric = true;
+    bool integral = true;
+    double budget = 0.0;      // work units
+    double unusable = 0.0;    // price of links no tour may take
+};
+
+TourResult plan_tree_doubling(const CostMatrix& costs, const TourRequest& request, const SearchContext& context) {
+    const ClosedTripProblem& problem = context.problem;
     TourResult result;
+    const ClosedTour tour = tree_doubling_tour(problem.costs, problem.start);
+    describe_trip(costs, request, trip_order(problem, tour, context.symmetric), result);
+    result.lower_bound = bound_closed_tour(problem.costs, context.symmetric, result.cost + problem.constant,
+                                           context.budget, context.unusable)
+                             .value -
+                         problem.constant;
+    result.method = "tree-doubling";
+    return result;
+}
 
-    if (request.method == TourMethod::tree_doubling) {
-        const ClosedTour tour = tree_doubling_tour(problem.costs, problem.start);
-        describe_trip(costs, request, trip_order(problem, tour, symmetric), result);
-        result.lower_bound = bound_closed_tour(problem.costs, symmetric, result.cost + problem.constant, budget, unusable).value -
-                             problem.constant;
-        result.method = "tree-doubling";
-        return result;
-    }
-
-    IteratedSearchSettings settings;
-    settings.symmetric = symmetric;
-    settings.epsilon = epsilon;
-    settings.seed = request.seed;
-    const std::size_t per_city = std::min(kCandidatesPerCity, problem.costs.size() - 1);
-    const CandidateLists nearest = successor_candidates(problem.costs, per_city);
-    const CandidateLists nearest_in = symmetric ? nearest : predecessor_candidates(problem.costs, per_city);
-
-    // Constructions sort all pairs: count them as a few units per matrix entry.
-    std::uint64_t work_spent = 4 * static_cast<std::uint64_t>(problem.costs.size() * problem.costs.size());
+// Every construction, polished by local search; the cheapest one wins (ties: the earlier).
+IteratedSearchResult best_polished_construction(const SearchContext& context, const CandidateLists& nearest,
+                                                const CandidateLists& nearest_in, const IteratedSearchSettings& settings,
+                                                std::string& construction) {
     IteratedSearchResult best;
-    std::string construction;
-    for (const Construction& start : construct_tours(problem, symmetric, nearest)) {
-        const IteratedSearchResult polished = polish_tour(problem.costs, nearest, nearest_in, start.tour, settings);
-        work_spent += polished.work;
+    std::uint64_t work = 0;
+    for (const Construction& start : construct_tours(context.problem, context.symmetric, nearest)) {
+        const IteratedSearchResult polished = polish_tour(context.problem.costs, nearest, nearest_in, start.tour, settings);
+        work += polished.work;
         if (construction.empty() || polished.cost < best.cost) {
             best = polished;
             construction = start.name;
         }
     }
+    best.work = work;
+    return best;
+}
 
-    const BoundWithPenalties bound = bound_closed_tour(problem.costs, symmetric, best.cost, budget, unusable);
+TourResult plan_heuristically(const CostMatrix& costs, const CostMatrix& finite, bool symmetric,
+                              const TourRequest& request, double ceiling) {
+    SearchContext context;
+    context.unusable = 3.0 * ceiling;
+    context.problem = close_trip(finite, symmetric, request, ceiling, context.unusable);
+    context.symmetric = symmetric;
+    context.integral = all_integral(costs);
+    context.budget = request.work_limit ? static_cast<double>(*request.work_limit)
+                                        : request.time_limit_seconds * kWorkUnitsPerSecond;
+    if (request.method == TourMethod::tree_doubling) return plan_tree_doubling(costs, request, context);
+    const CostMatrix& closed_costs = context.problem.costs;
+
+    IteratedSearchSettings settings;
+    settings.symmetric = symmetric;
+    settings.epsilon = context.integral ? 0.5 : 1e-9 * ceiling;
+    settings.seed = request.seed;
+    const std::size_t per_city = std::min(kCandidatesPerCity, closed_costs.size() - 1);
+    const CandidateLists nearest = successor_candidates(closed_costs, per_city);
+    const CandidateLists nearest_in = symmetric ? nearest : predecessor_candidates(closed_costs, per_city);
+    std::string construction;
+    IteratedSearchResult best = best_polished_construction(context, nearest, nearest_in, settings, construction);
+    // Constructions sort all pairs: count them as a few units per matrix entry.
+    std::uint64_t work_spent = best.work + 4 * static_cast<std::uint64_t>(closed_costs.size() * closed_costs.size());
+
+    // The bound's penalties rank the candidates of the iterated search (reduced costs).
+    const BoundWithPenalties bound = bound_closed_tour(closed_costs, symmetric, best.cost, context.budget, context.unusable);
     work_spent += bound.work;
-    const CandidateLists successors = successor_candidates(problem.costs, per_city, bound.successor_penalty);
+    const CandidateLists successors = successor_candidates(closed_costs, per_city, bound.successor_penalty);
     const CandidateLists predecessors =
-        symmetric ? successors : predecessor_candidates(problem.costs, per_city, bound.predecessor_penalty);
+        symmetric ? successors : predecessor_candidates(closed_costs, per_city, bound.predecessor_penalty);
 
-    settings.work_budget = budget > static_cast<double>(work_spent) ? static_cast<std::uint64_t>(budget) - work_spent : 0;
-    settings.good_enough = integral ? std::ceil(bound.value - 1e-6) : bound.value;
-    const IteratedSearchResult searched = iterated_local_search(problem.costs, successors, predecessors, best.tour, settings);
+    settings.work_budget = context.budget > static_cast<double>(work_spent)
+                               ? static_cast<std::uint64_t>(context.budget) - work_spent
+                               : 0;
+    settings.good_enough = context.integral ? std::ceil(bound.value - 1e-6) : bound.value;
+    const IteratedSearchResult searched = iterated_local_search(closed_costs, successors, predecessors, best.tour, settings);
+    const bool kicks_helped = searched.cost < best.cost - settings.epsilon;
     if (searched.cost <= best.cost) best = searched;
-    result.kicks = searched.kicks;
 
-    describe_trip(costs, request, trip_order(problem, best.tour, symmetric), result);
-    result.lower_bound = bound.value - problem.constant;
+    TourResult result;
+    result.kicks = searched.kicks;
+    describe_trip(costs, request, trip_order(context.problem, best.tour, symmetric), result);
+    result.lower_bound = bound.value - context.problem.constant;
     result.method = construction + (symmetric ? "+2-opt+or-opt" : "+or-opt+segment-exchange") +
-                    (result.kicks > 0 ? "+double-bridge" : "");
+                    (kicks_helped ? "+double-bridge" : "");
     return result;
 }
 
