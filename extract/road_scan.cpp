@@ -2,6 +2,7 @@
 
 #include "common/input_error.hpp"
 #include "common/progress.hpp"
+#include "extract/pbf_layout.hpp"
 #include "extract/turn_restrictions.hpp"
 
 #include <osmium/handler.hpp>
@@ -11,6 +12,11 @@
 #include <osmium/io/xml_input.hpp>
 #include <osmium/visitor.hpp>
 #include <protozero/exception.hpp>
+
+#include <fcntl.h>
+#include <sys/mman.h>
+#include <sys/stat.h>
+#include <unistd.h>
 
 #include <algorithm>
 #include <filesystem>
@@ -45,6 +51,10 @@ public:
         }
     }
 
+    // Reading only the blocks after the node blocks, a node here means the guessed layout was wrong.
+    void node(const osmium::Node&) { saw_unexpected_ = true; }
+    bool saw_unexpected() const noexcept { return saw_unexpected_; }
+
 private:
     // Names are shared by many ways of one street: each distinct name is stored once.
     std::uint32_t name_offset(const osmium::TagList& tags) {
@@ -63,6 +73,7 @@ private:
     const Profile& profile_;
     CollectedRoads& roads_;
     std::unordered_map<std::string, std::uint32_t> offsets_;
+    bool saw_unexpected_ = false;
 };
 
 // Pass 2: locations and barrier rules of the road nodes (road_node_ids), nothing else.
@@ -84,21 +95,30 @@ public:
         if (node.tags().has_key("barrier")) road_node.barrier = evaluate_barrier(node.tags(), profile_);
     }
 
+    // Reading only the node blocks, a way or relation here means the guessed layout was wrong.
+    void way(const osmium::Way&) { saw_unexpected_ = true; }
+    void relation(const osmium::Relation&) { saw_unexpected_ = true; }
+    bool saw_unexpected() const noexcept { return saw_unexpected_; }
+
 private:
     const Profile& profile_;
     CollectedRoads& roads_;
     std::size_t cursor_ = 0;
+    bool saw_unexpected_ = false;
 };
 
+// Reads every buffer of `reader` into `handler`. Progress: the share of the file read, or, for
+// in-memory input (the file's own offsets do not apply), buffers decoded out of `expected_blocks`.
 template <typename Handler>
-void read_pass(const osmium::io::File& file, osmium::osm_entity_bits::type entities, Handler& handler,
-               Progress* progress, std::string* replication_timestamp) {
-    osmium::io::Reader reader{file, entities};
-    if (replication_timestamp != nullptr) *replication_timestamp = reader.header().get("osmosis_replication_timestamp");
-    const double size = static_cast<double>(std::max<std::size_t>(reader.file_size(), 1));
+void read_pass(osmium::io::Reader& reader, Handler& handler, Progress* progress, std::size_t expected_blocks) {
+    const double size = static_cast<double>(reader.file_size());
+    std::size_t buffers = 0;
     while (osmium::memory::Buffer buffer = reader.read()) {
         osmium::apply(buffer, handler);
-        if (progress != nullptr) progress->update(static_cast<double>(reader.offset()) / size);
+        ++buffers;
+        if (progress == nullptr) continue;
+        if (expected_blocks > 0) progress->update(std::min(1.0, static_cast<double>(buffers) / static_cast<double>(expected_blocks)));
+        else if (size > 0) progress->update(static_cast<double>(reader.offset()) / size);
     }
     reader.close();
 }
@@ -128,16 +148,89 @@ osmium::io::File open_checked(const std::string& path) {
     return file;
 }
 
-void scan_passes(const osmium::io::File& file, const Profile& profile, Progress* progress, CollectedRoads& roads) {
+// The plain way: each pass reads the whole file (decompressing every block twice in all).
+void scan_whole_file(const osmium::io::File& file, const Profile& profile, Progress* progress, CollectedRoads& roads) {
     if (progress != nullptr) progress->phase("reading roads");
     RoadWayCollector way_collector{profile, roads};
-    read_pass(file, osmium::osm_entity_bits::way | osmium::osm_entity_bits::relation, way_collector, progress,
-              &roads.replication_timestamp);
+    osmium::io::Reader way_reader{file, osmium::osm_entity_bits::way | osmium::osm_entity_bits::relation};
+    roads.replication_timestamp = way_reader.header().get("osmosis_replication_timestamp");
+    read_pass(way_reader, way_collector, progress, 0);
     index_road_nodes(roads);
 
     if (progress != nullptr) progress->phase("reading road node locations");
     RoadNodeCollector node_collector{profile, roads};
-    read_pass(file, osmium::osm_entity_bits::node, node_collector, progress, nullptr);
+    osmium::io::Reader node_reader{file, osmium::osm_entity_bits::node};
+    read_pass(node_reader, node_collector, progress, 0);
+}
+
+// A read-only memory map of a whole file.
+class MappedFile {
+public:
+    explicit MappedFile(const std::string& path) {
+        const int descriptor = ::open(path.c_str(), O_RDONLY | O_CLOEXEC);
+        if (descriptor < 0) return;
+        struct stat status {};
+        if (::fstat(descriptor, &status) == 0 && status.st_size > 0) {
+            void* mapping = ::mmap(nullptr, static_cast<std::size_t>(status.st_size), PROT_READ, MAP_PRIVATE, descriptor, 0);
+            if (mapping != MAP_FAILED) {
+                data_ = static_cast<const char*>(mapping);
+                size_ = static_cast<std::size_t>(status.st_size);
+            }
+        }
+        ::close(descriptor);
+    }
+    ~MappedFile() {
+        if (data_ != nullptr) ::munmap(const_cast<char*>(data_), size_);
+    }
+    MappedFile(const MappedFile&) = delete;
+    MappedFile& operator=(const MappedFile&) = delete;
+
+    const char* data() const noexcept { return data_; }
+    std::size_t size() const noexcept { return size_; }
+
+private:
+    const char* data_ = nullptr;
+    std::size_t size_ = 0;
+};
+
+// A PBF sorted nodes-first: the way pass reads the header and the blocks after the node blocks,
+// the node pass the header and the node blocks, so each block is decompressed once. Returns false
+// (results to be discarded) if the passes find the layout guess wrong.
+bool scan_split_file(const MappedFile& mapped, const PbfLayout& layout, const Profile& profile, Progress* progress,
+                     CollectedRoads& roads) {
+    if (progress != nullptr) progress->phase("reading roads");
+    std::string header_and_rest(mapped.data(), layout.header_end);
+    header_and_rest.append(mapped.data() + layout.first_non_node, mapped.size() - layout.first_non_node);
+    RoadWayCollector way_collector{profile, roads};
+    {
+        osmium::io::Reader way_reader{osmium::io::File{header_and_rest.data(), header_and_rest.size(), "pbf"},
+                                      osmium::osm_entity_bits::node | osmium::osm_entity_bits::way |
+                                          osmium::osm_entity_bits::relation};
+        roads.replication_timestamp = way_reader.header().get("osmosis_replication_timestamp");
+        read_pass(way_reader, way_collector, progress, layout.other_blobs);
+    }
+    if (way_collector.saw_unexpected()) return false;
+    header_and_rest = std::string{};
+    index_road_nodes(roads);
+
+    if (progress != nullptr) progress->phase("reading road node locations");
+    RoadNodeCollector node_collector{profile, roads};
+    osmium::io::Reader node_reader{osmium::io::File{mapped.data(), layout.first_non_node, "pbf"}, osmium::osm_entity_bits::all};
+    read_pass(node_reader, node_collector, progress, layout.node_blobs);
+    return !node_collector.saw_unexpected();
+}
+
+void scan_passes(const osmium::io::File& file, const Profile& profile, Progress* progress, CollectedRoads& roads) {
+    if (file.format() == osmium::io::file_format::pbf && file.compression() == osmium::io::file_compression::none) {
+        const MappedFile mapped{file.filename()};
+        if (mapped.data() != nullptr) {
+            if (const auto layout = find_pbf_layout(mapped.data(), mapped.size())) {
+                if (scan_split_file(mapped, *layout, profile, progress, roads)) return;
+                roads = CollectedRoads{};   // not sorted after all: read it the plain way
+            }
+        }
+    }
+    scan_whole_file(file, profile, progress, roads);
 }
 
 } // namespace
