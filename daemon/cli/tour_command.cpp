@@ -188,26 +188,34 @@ std::vector<std::pair<std::size_t, std::size_t>> hop_pairs(const PlannedTour& to
     return hops;
 }
 
-json tour_json(const TourInput& input, const PlannedTour& tour, const TourOptions& options) {
+// Per hop: the ids, and its cost (bare matrix) or seconds and metres (road graph).
+json hops_json(const TourInput& input, const PlannedTour& tour, double& total_meters) {
     const auto& ids = input.matrix.ids;
-    const auto& result = tour.result;
-    json order = json::array();
-    for (const std::size_t stop : result.order) order.push_back(ids[stop]);
     json hops = json::array();
-    double total_meters = 0.0;
+    total_meters = 0.0;
     const auto pairs = hop_pairs(tour);
     for (std::size_t i = 0; i < pairs.size(); ++i) {
         const auto [from, to] = pairs[i];
         json hop = {{"from", ids[from]}, {"to", ids[to]}};
         if (input.on_roads()) {
-            hop["seconds"] = tenths(result.hop_costs[i]);
+            hop["seconds"] = tenths(tour.result.hop_costs[i]);
             hop["meters"] = tenths(input.travel.meters(from, to));
             total_meters += input.travel.meters(from, to);
         } else {
-            hop["cost"] = tidy(result.hop_costs[i]);
+            hop["cost"] = tidy(tour.result.hop_costs[i]);
         }
         hops.push_back(hop);
     }
+    return hops;
+}
+
+json tour_json(const TourInput& input, const PlannedTour& tour, const TourOptions& options) {
+    const auto& ids = input.matrix.ids;
+    const auto& result = tour.result;
+    json order = json::array();
+    for (const std::size_t stop : result.order) order.push_back(ids[stop]);
+    double total_meters = 0.0;
+    const json hops = hops_json(input, tour, total_meters);
     json out = {{"stops", ids.size()}, {"trip", trip_shape_name(tour.shape)}, {"order", order}, {"hops", hops}};
     if (input.on_roads()) {
         out["metric"] = "time";
@@ -222,7 +230,7 @@ json tour_json(const TourInput& input, const PlannedTour& tour, const TourOption
     out["method"] = result.method;
     out["seed"] = options.seed;
     out["time_limit_seconds"] = options.time_limit;
-    out["elapsed_seconds"] = result.elapsed_seconds;
+    out["elapsed_seconds"] = std::round(result.elapsed_seconds * 1e6) / 1e6;
     out["diagnostics"] = diagnostics_json(tour.diagnostics, ids);
     json closure = {{"used", tour.closure.has_value()}};
     if (tour.closure) {
