@@ -57,7 +57,7 @@ graph::RoadGraphData extract_road_graph(const ExtractOptions& options, Progress*
 
 graph::RoadGraph extract_and_build_road_graph(const ExtractOptions& options, Progress* progress) {
     graph::RoadGraphData data = extract_road_graph(options, progress);
-    if (progress != nullptr) progress->phase("sorting edges and finding components");
+    if (progress != nullptr) progress->phase("finding components");
     return graph::build_road_graph(std::move(data));
 }
 

@@ -5,7 +5,8 @@
 // It reads the file twice with libosmium's multithreaded reader: first the ways and relations
 // (which ways are roads, which nodes they use, which turn restrictions exist), then the nodes,
 // keeping the locations and barrier tags of road nodes only, so memory grows with the road
-// network rather than with the whole extract. Vertices are junctions (nodes shared by roads or
+// network rather than with the whole extract. (A nodes-first PBF is split so that each pass
+// decompresses only the blocks it needs: see road_scan.hpp.) Vertices are junctions (nodes shared by roads or
 // used twice by one road), road ends and barrier nodes; the nodes between them become the shape
 // points of a segment.
 //
