@@ -89,7 +89,7 @@ bool is_closed(const TourRequest& request) {
 // Fills order, hop costs and cost from the original matrix; throws when the order is not a
 // valid trip made of available entries.
 void describe_trip(const CostMatrix& costs, const TourRequest& request, std::vector<std::size_t> order,
-                   TourResult& result) {
+                   TourResult& result, bool exhaustive) {
     const std::size_t n = costs.size();
     const bool closed = is_closed(request);
     if (order.size() != n || order.front() != request.start ||
@@ -102,8 +102,10 @@ void describe_trip(const CostMatrix& costs, const TourRequest& request, std::vec
     for (std::size_t k = 0; k < hops && n > 1; ++k) {
         const std::size_t from = result.order[k], to = result.order[(k + 1) % n];
         if (!costs.has(from, to))
-            throw InputError("no tour exists that uses only available connections: the best order found needs the "
-                             "missing connection from " + describe_stop(request, from) + " to " + describe_stop(request, to),
+            throw InputError(std::string(exhaustive ? "no tour exists that uses only available connections"
+                                                    : "no tour using only available connections was found") +
+                                 ": the best order needs the missing connection from " + describe_stop(request, from) +
+                                 " to " + describe_stop(request, to),
                              "stops");
         result.hop_costs.push_back(costs(from, to));
         result.cost += costs(from, to);
@@ -173,7 +175,7 @@ std::vector<Construction> construct_tours(const ClosedTripProblem& problem, bool
 TourResult plan_exactly(const CostMatrix& costs, const CostMatrix& finite, const TourRequest& request) {
     const HeldKarpResult exact = held_karp(finite, request.start, request.shape, request.end);
     TourResult result;
-    describe_trip(costs, request, exact.order, result);
+    describe_trip(costs, request, exact.order, result, true);
     result.lower_bound = result.cost;
     result.proven_optimal = true;
     result.gap = 0.0;
@@ -193,7 +195,7 @@ TourResult plan_tree_doubling(const CostMatrix& costs, const TourRequest& reques
     const ClosedTripProblem& problem = context.problem;
     TourResult result;
     const ClosedTour tour = tree_doubling_tour(problem.costs, problem.start);
-    describe_trip(costs, request, trip_order(problem, tour, context.symmetric), result);
+    describe_trip(costs, request, trip_order(problem, tour, context.symmetric), result, false);
     result.lower_bound = bound_closed_tour(problem.costs, context.symmetric, result.cost + problem.constant,
                                            context.budget, context.unusable)
                              .value -
@@ -261,7 +263,7 @@ TourResult plan_heuristically(const CostMatrix& costs, const CostMatrix& finite,
 
     TourResult result;
     result.kicks = searched.kicks;
-    describe_trip(costs, request, trip_order(context.problem, best.tour, symmetric), result);
+    describe_trip(costs, request, trip_order(context.problem, best.tour, symmetric), result, false);
     result.lower_bound = bound.value - context.problem.constant;
     result.method = construction + (symmetric ? "+2-opt+or-opt" : "+or-opt+segment-exchange") +
                     (kicks_helped ? "+double-bridge" : "");
