@@ -166,4 +166,13 @@ TEST_CASE("network on the Monaco road graph: shared road counted once, unique pi
     CHECK(geojson.at("network").at("road_meters").get<double>() == road);
 
     CHECK(run_ringroad({"network", region, "--stops", folder + "/sites.csv", "--metric-closure"}).exit_code == 1);
+
+    // A site far from every road is named, with its line; nothing is written.
+    ringroad::test::write_file(folder + "/far.csv", "id,lat,lon\nport,43.7350,7.4230\nnice,43.7102,7.2620\n");
+    const auto far = run_ringroad({"network", region, "--stops", folder + "/far.csv", "-o", folder + "/far.json"});
+    CHECK(far.exit_code == 1);
+    CHECK(one_line(far.err));
+    CHECK(far.err.find("far.csv:3:") != std::string::npos);
+    CHECK(far.err.find("nice") != std::string::npos);
+    CHECK_FALSE(ringroad::test::file_exists(folder + "/far.json"));
 }

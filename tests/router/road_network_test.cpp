@@ -194,6 +194,27 @@ TEST_CASE("Monaco: sites in the middle of segments split them exactly") {
     }
 }
 
+TEST_CASE("Monaco: two sites at the same place are joined by an empty link") {
+    const RoadGraph& graph = monaco();
+    std::vector<NetworkSite> sites = junction_sites(graph, 4, 11);
+    sites[1].fraction = 0.5;
+    sites.push_back({"copy", sites[1].segment, 0.5});
+    const auto network = plan_road_network(graph, sites);
+    REQUIRE(network.links.size() == 4);
+    bool empty_link = false;
+    for (const auto& link : network.links) {
+        if ((link.from_site == 1 && link.to_site == 4) || (link.from_site == 4 && link.to_site == 1)) {
+            empty_link = link.length_dm == 0;
+        }
+    }
+    CHECK(empty_link);
+    // The copy adds nothing: the same network as without it.
+    sites.pop_back();
+    const auto without = plan_road_network(graph, sites);
+    CHECK(without.road_length_dm == network.road_length_dm);
+    CHECK(without.link_length_sum_dm == network.link_length_sum_dm);
+}
+
 TEST_CASE("bad sites are named") {
     const RoadGraph& graph = monaco();
     std::vector<NetworkSite> sites = junction_sites(graph, 3, 0);
