@@ -10,7 +10,7 @@
 // array steps and bound matrix entries, calibrated so that one second of budget takes about one
 // CPU second on the development machine). The search stops when the budget is spent, so the same matrix, request and seed
 // give the same tour on any machine and under any load; the elapsed time only approximates the
-// limit. `work_limit` replaces that conversion by an explicit budget.
+// limit. `work_limit` replaces that conversion by an explicit budget. See TOURS.md.
 
 #include "router/planners/cost_matrix.hpp"
 
@@ -54,7 +54,8 @@ struct TourResult {
                                          // order.size() for closed tours (last hop back to start)
     double cost = 0.0;
     double lower_bound = 0.0;
-    double gap = 0.0;                    // (cost - lower_bound) / lower_bound; 0 when proven
+    double gap = 0.0;                    // (cost - lower_bound) / lower_bound; 0 when proven,
+                                         // 1 when the bound is 0 but the tour is not free
     bool proven_optimal = false;
     std::string method;                  // e.g. "held-karp", "greedy+2-opt+or-opt+double-bridge"
     double elapsed_seconds = 0.0;
