@@ -1,6 +1,7 @@
 // The TSPLIB reader, checked against values published with TSPLIB 95 (Reinelt 1991/1995).
 #include "common/input_error.hpp"
 #include "router/planners/held_karp.hpp"
+#include "router/planners/tour_planner.hpp"
 #include "tests/support/run_command.hpp"
 #include "tests/support/tsplib_reader.hpp"
 
@@ -67,6 +68,17 @@ TEST_CASE("GEO distances give the published optimum of burma14") {
     // whole degrees toward zero; nint() would change several distances and the optimum.
     const auto instance = test::read_tsplib_file(tsplib("symmetric/burma14.tsp"));
     CHECK(planners::held_karp(instance.costs, 0, planners::TripShape::closed).cost == 3323.0);
+}
+
+TEST_CASE("ATT distances give the published optimum of att48") {
+    // att48 optimum 10628 (TSPLIB optimal.txt). The search reaches it on this budget
+    // (deterministic); plain EUC_2D distances would make every tour about sqrt(10) times longer.
+    const auto instance = test::read_tsplib_file(tsplib("symmetric/att48.tsp"));
+    planners::TourRequest request;
+    request.work_limit = 20'000'000;
+    const auto result = planners::plan_tour(instance.costs, request);
+    CHECK(result.cost == 10628.0);
+    CHECK(result.lower_bound <= 10628.0);
 }
 
 TEST_CASE("distance functions follow TSPLIB 95 section 2") {
