@@ -54,19 +54,25 @@ double road_km(const graph::RoadGraph& graph) {
     return static_cast<double>(decimetres) / 10000.0;
 }
 
+std::string count_of(std::uint64_t count, const char* singular, const char* plural) {
+    return std::to_string(count) + " " + (count == 1 ? singular : plural);
+}
+
 void print_summary(const graph::RoadGraph& graph, const BuildArguments& arguments, double seconds) {
     std::uint64_t main_junctions = 0;
     for (std::uint32_t component : graph.components()) main_junctions += component == 0 ? 1 : 0;
     std::fprintf(stderr,
-                 "Built %s from %s (%s profile): %u junctions, %u edges, %.1f km of road; %u strongly "
-                 "connected components, the main one with %llu junctions; %zu turn restrictions stored "
-                 "(%s read, %s unmatched); %s ways skipped for nodes missing from the extract; %.1f s.\n",
+                 "Built %s from %s (%s profile): %s, %s, %.1f km of road; %s, the main one with %s; "
+                 "%s stored (%s read, %s unmatched); %s skipped for nodes missing from the extract; %.1f s.\n",
                  arguments.output.c_str(), arguments.input.c_str(), arguments.profile.c_str(),
-                 graph.vertex_count(), graph.edge_count(), road_km(graph), graph.component_count(),
-                 static_cast<unsigned long long>(main_junctions), graph.turn_restrictions().size(),
+                 count_of(graph.vertex_count(), "junction", "junctions").c_str(),
+                 count_of(graph.edge_count(), "edge", "edges").c_str(), road_km(graph),
+                 count_of(graph.component_count(), "strongly connected component", "strongly connected components").c_str(),
+                 count_of(main_junctions, "junction", "junctions").c_str(),
+                 count_of(graph.turn_restrictions().size(), "turn restriction", "turn restrictions").c_str(),
                  graph.metadata_value("restrictions_read").c_str(),
                  graph.metadata_value("restrictions_unmatched").c_str(),
-                 graph.metadata_value("ways_missing_nodes").c_str(), seconds);
+                 count_of(std::stoull("0" + graph.metadata_value("ways_missing_nodes")), "way", "ways").c_str(), seconds);
 }
 
 graph::RoadGraph build_graph_from_extract(const BuildArguments& arguments, Progress& progress) {
