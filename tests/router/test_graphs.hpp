@@ -135,4 +135,36 @@ inline graph::RoadGraph random_grid_graph(const RandomGridOptions& options) {
     return builder.build();
 }
 
+// A 3 x 3 grid of two-way streets about 100 m apart near 18.05 N, 141 W (open Pacific), named
+// "Row Street N" and "Column Road N", with a dead-end "Spur Lane" east of the middle of the east
+// side. With `trap_spur`, turn restrictions forbid every turn into the spur, so a stop on it can
+// be left but never reached: the pairs towards it are unreachable.
+inline graph::RoadGraph small_test_town(bool trap_spur) {
+    GraphBuilder builder;
+    graph::VertexId at[3][3];
+    for (int row = 0; row < 3; ++row) {
+        for (int column = 0; column < 3; ++column) at[row][column] = builder.add_vertex(18.05 + row * 0.0009, -141.0 + column * 0.00095);
+    }
+    std::vector<graph::SegmentId> at_east_middle;
+    for (int row = 0; row < 3; ++row) {
+        for (int column = 0; column < 2; ++column) {
+            const auto id = builder.add_road(at[row][column], at[row][column + 1], 30, true, true, "Row Street " + std::to_string(row));
+            if (row == 1 && column == 1) at_east_middle.push_back(id);
+        }
+    }
+    for (int column = 0; column < 3; ++column) {
+        for (int row = 0; row < 2; ++row) {
+            const auto id = builder.add_road(at[row][column], at[row + 1][column], 50, true, true, "Column Road " + std::to_string(column));
+            if (column == 2) at_east_middle.push_back(id);
+        }
+    }
+    const auto spur_end = builder.add_vertex(18.0509, -140.9971);
+    const auto spur = builder.add_road(at[1][2], spur_end, 20, true, true, "Spur Lane");
+    if (trap_spur) {
+        for (graph::SegmentId from : at_east_middle) builder.add_restriction(from, at[1][2], spur, graph::RestrictionKind::no_turn);
+    }
+    builder.data().metadata.push_back({"profile", "car"});
+    return builder.build();
+}
+
 } // namespace ringroad::test

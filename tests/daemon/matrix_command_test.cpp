@@ -1,0 +1,156 @@
+// `ringroad matrix` end to end on a small invented town written as a .rrg file: CSV and JSON
+// shapes, engines agreeing, unreachable pairs, outputs written whole or not at all, and bad input.
+#include "common/safety_notice.hpp"
+#include "graph/graph_file.hpp"
+#include "router/contraction_hierarchy.hpp"
+#include "tests/router/test_graphs.hpp"
+#include "tests/support/run_command.hpp"
+
+#include <catch2/catch.hpp>
+#include <nlohmann/json.hpp>
+
+#include <sstream>
+
+using namespace ringroad;
+using ringroad::test::run_ringroad;
+
+namespace {
+
+struct Town {
+    std::string folder;
+    std::string region;        // no hierarchy stored
+    std::string region_with_hierarchy;
+    std::string stops;
+};
+
+const Town& town() {
+    static const Town prepared = [] {
+        Town result;
+        result.folder = test::make_scratch_dir("matrix-cli");
+        const graph::RoadGraph graph = test::small_test_town(/*trap_spur=*/true);
+        result.region = result.folder + "/town.rrg";
+        result.region_with_hierarchy = result.folder + "/town-ch.rrg";
+        graph::write_road_graph(graph, result.region);
+        graph::write_road_graph(graph::attach_sections(graph, router::build_hierarchy_sections(graph)),
+                                result.region_with_hierarchy);
+        result.stops = result.folder + "/stops.csv";
+        // a: south-west corner; b: mid Row Street 1; c: north-east corner; spur: on Spur Lane.
+        test::write_file(result.stops, "id,lat,lon,name\n"
+                                       "a,18.05,-141.0,Depot\n"
+                                       "b,18.0509,-140.9995,Bakery\n"
+                                       "c,18.0518,-140.9981,Clinic\n"
+                                       "spur,18.0509,-140.9975,Farm gate\n");
+        return result;
+    }();
+    return prepared;
+}
+
+std::vector<std::vector<std::string>> csv_cells(const std::string& text) {
+    std::vector<std::vector<std::string>> rows;
+    std::istringstream in(text);
+    std::string line;
+    while (std::getline(in, line)) {
+        if (!line.empty() && line.back() == '\r') line.pop_back();
+        std::vector<std::string> cells;
+        std::string cell;
+        std::istringstream fields(line);
+        while (std::getline(fields, cell, ',')) cells.push_back(cell);
+        if (!line.empty() && line.back() == ',') cells.emplace_back();
+        rows.push_back(cells);
+    }
+    return rows;
+}
+
+} // namespace
+
+TEST_CASE("matrix CSV: header, seconds with one decimal, empty cells and a summary for unreachable pairs", "[cli][matrix]") {
+    const auto result = run_ringroad({"matrix", town().region, "--stops", town().stops});
+    REQUIRE(result.exit_code == 0);
+    const auto rows = csv_cells(result.out);
+    REQUIRE(rows.size() == 5);
+    REQUIRE(rows[0] == std::vector<std::string>{"id", "a", "b", "c", "spur"});
+    REQUIRE(rows[1][0] == "a");
+    REQUIRE(rows[1][1] == "0.0");
+    REQUIRE(rows[1][2].find('.') == rows[1][2].size() - 2);   // one decimal
+    REQUIRE(std::stod(rows[1][3]) > 0);
+    // The spur can be left but not reached: its column is empty except its own diagonal.
+    REQUIRE(rows[1][4].empty());
+    REQUIRE(rows[4][4] == "0.0");
+    REQUIRE_FALSE(rows[4][1].empty());
+    REQUIRE_THAT(result.err, Catch::Contains("3 unreachable pairs (no route): a -> spur, b -> spur, c -> spur"));
+    REQUIRE_THAT(result.err, Catch::Contains(kSafetyNotice));
+}
+
+TEST_CASE("matrix JSON: ids, seconds, meters, snapped, unreachable, caution; engines agree", "[cli][matrix]") {
+    const auto dijkstra = run_ringroad({"matrix", town().region, "--stops", town().stops, "--format", "json", "--engine", "dijkstra"});
+    const auto hierarchy = run_ringroad({"matrix", town().region_with_hierarchy, "--stops", town().stops, "--format", "json"});
+    REQUIRE(dijkstra.exit_code == 0);
+    REQUIRE(hierarchy.exit_code == 0);
+    const auto a = nlohmann::json::parse(dijkstra.out);
+    const auto b = nlohmann::json::parse(hierarchy.out);
+    REQUIRE(a["engine"] == "dijkstra");
+    REQUIRE(b["engine"] == "hierarchy");
+    REQUIRE(a["ids"] == nlohmann::json({"a", "b", "c", "spur"}));
+    REQUIRE(a["seconds"] == b["seconds"]);
+    REQUIRE(a["meters"] == b["meters"]);
+    REQUIRE(a["seconds"][0][3].is_null());
+    REQUIRE(a["meters"][0][3].is_null());
+    REQUIRE(a["seconds"][3][0].is_number());
+    REQUIRE(a["unreachable"].size() == 3);
+    REQUIRE(a["unreachable"][0] == nlohmann::json({{"from", "a"}, {"to", "spur"}}));
+    REQUIRE(a["caution"] == kSafetyNotice);
+    REQUIRE(a["snapped"][1]["columns"]["name"] == "Bakery");
+    REQUIRE(a["snapped"][1]["road"] == "Row Street 1");
+    REQUIRE(a["snapped"][0]["snap_meters"].get<double>() < 0.1);
+    // a -> c: the corners of the grid, about 200 m + 190 m apart along the streets.
+    REQUIRE(a["meters"][0][2].get<double>() == Approx(200.1 + 190.5).margin(15.0));
+}
+
+TEST_CASE("matrix writes -o and --second-table files; distance metric", "[cli][matrix]") {
+    const std::string out = town().folder + "/m.csv";
+    const std::string second = town().folder + "/m-seconds.csv";
+    const auto result = run_ringroad(
+        {"matrix", town().region, "--stops", town().stops, "--metric", "distance", "-o", out, "--second-table", second});
+    REQUIRE(result.exit_code == 0);
+    REQUIRE(result.out.empty());
+    const auto meters = csv_cells(test::read_file(out));
+    const auto seconds = csv_cells(test::read_file(second));
+    REQUIRE(meters[0] == seconds[0]);
+    // Metres exceed seconds on streets driven at 30-50 km/h (8-14 m/s).
+    REQUIRE(std::stod(meters[1][3]) > 5 * std::stod(seconds[1][3]));
+}
+
+TEST_CASE("matrix refuses bad input with one line, exit 1, and no output file", "[cli][matrix]") {
+    const std::string folder = test::make_scratch_dir("matrix-bad");
+    const std::string out = folder + "/out.csv";
+    const auto run_with = [&](const std::string& stops_text) {
+        test::write_file(folder + "/stops.csv", stops_text);
+        return run_ringroad({"matrix", town().region, "--stops", folder + "/stops.csv", "-o", out});
+    };
+    auto result = run_with("id,lat\na,18.05\n");
+    REQUIRE(result.exit_code == 1);
+    REQUIRE_THAT(result.err, Catch::Contains("stops.csv:1: missing column 'lon'"));
+    result = run_with("id,lat,lon\na,18.05,-141.0\nb,x,-141.0\n");
+    REQUIRE(result.exit_code == 1);
+    REQUIRE_THAT(result.err, Catch::Contains("stops.csv:3: column 'lat': 'x' is not a number"));
+    result = run_with("id,lat,lon\na,18.05,-141.0\na,18.05,-141.0\n");
+    REQUIRE_THAT(result.err, Catch::Contains("stops.csv:3: column 'id': duplicate id 'a'"));
+    result = run_with("id,lat,lon\na,18.05,-141.0\nfar,18.0575,-141.0\n");
+    REQUIRE(result.exit_code == 1);
+    REQUIRE_THAT(result.err, Catch::Contains("stops.csv:3: stop 'far' is"));
+    REQUIRE_THAT(result.err, Catch::Contains("m from the nearest road (snap radius 500 m)"));
+    REQUIRE(std::count(result.err.begin(), result.err.end(), '\n') == 1);
+    result = run_with("id,lat,lon\na,95,-141.0\n");
+    REQUIRE_THAT(result.err, Catch::Contains("latitude 95 is outside"));
+    REQUIRE_FALSE(test::file_exists(out));
+
+    result = run_ringroad({"matrix", folder + "/missing.rrg", "--stops", town().stops});
+    REQUIRE(result.exit_code == 1);
+    REQUIRE_THAT(result.err, Catch::Contains("missing.rrg"));
+    result = run_ringroad({"matrix", town().region, "--stops", town().stops, "--metric", "fuel"});
+    REQUIRE(result.exit_code == 2);
+    // A larger radius accepts the far stop.
+    test::write_file(folder + "/stops.csv", "id,lat,lon\na,18.05,-141.0\nfar,18.0575,-141.0\n");
+    result = run_ringroad({"matrix", town().region, "--stops", folder + "/stops.csv", "--snap-radius", "1000"});
+    REQUIRE(result.exit_code == 0);
+}
