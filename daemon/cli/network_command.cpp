@@ -94,16 +94,17 @@ json matrix_network_json(const NetworkOptions& options) {
 
 struct RoadNetworkAnswer {
     graph::RoadGraph graph;
+    router::StopList stops;     // with any further columns (name, ...), echoed in GeoJSON
     std::vector<router::SnappedStop> sites;
     router::RoadNetwork network;
 };
 
 RoadNetworkAnswer plan_on_roads(const NetworkOptions& options) {
-    const router::StopList stops = router::read_stops_csv(options.stops);
+    router::StopList stops = router::read_stops_csv(options.stops);
     graph::RoadGraph graph = graph::load_road_graph(options.region);
     // The snapper alone is enough: a network needs site positions, not the routing engine.
     const router::RoadSnapper snapper(graph);
-    RoadNetworkAnswer answer{graph, {}, {}};
+    RoadNetworkAnswer answer{graph, stops, {}, {}};
     std::vector<router::NetworkSite> sites;
     for (const router::Stop& stop : stops.stops) {
         try {
@@ -166,10 +167,17 @@ json road_network_geojson(const RoadNetworkAnswer& answer, json summary) {
     features.push_back({{"type", "Feature"},
                         {"geometry", {{"type", "MultiLineString"}, {"coordinates", lines}}},
                         {"properties", {{"road_meters", summary["road_meters"]}, {"segments", lines.size()}}}});
-    for (const auto& site : answer.sites) {
+    for (std::size_t i = 0; i < answer.sites.size(); ++i) {
+        const auto& site = answer.sites[i];
+        json properties = {{"site", site.id}, {"snap_meters", std::round(site.snap_distance_meters * 10) / 10}};
+        const auto& extra = answer.stops.stops[i].extra_values;
+        for (std::size_t column = 0; column < extra.size(); ++column) {
+            const std::string& name = answer.stops.extra_columns[column];
+            if (!properties.contains(name)) properties[name] = extra[column];
+        }
         features.push_back({{"type", "Feature"},
                             {"geometry", {{"type", "Point"}, {"coordinates", position(site.on_road)}}},
-                            {"properties", {{"site", site.id}, {"snap_meters", std::round(site.snap_distance_meters * 10) / 10}}}});
+                            {"properties", properties}});
     }
     summary.erase("segments");
     return {{"type", "FeatureCollection"}, {"features", features}, {"network", summary}, {"caution", kSafetyNotice}};

@@ -54,10 +54,11 @@ struct TourOptions {
 };
 
 // The stops and what a hop between them costs: a bare matrix, or travel times on a road graph
-// (then `router`, `snapped` and `travel` are set, and metres are known for every hop).
+// (then `router`, `stops`, `snapped` and `travel` are set, and metres are known for every hop).
 struct TourInput {
     planners::LabelledMatrix matrix;
     std::unique_ptr<router::RoadRouter> router;
+    router::StopList stops;          // with any further columns (name, ...), echoed in CSV/GeoJSON
     std::vector<router::SnappedStop> snapped;
     router::TravelMatrix travel;
     bool on_roads() const { return router != nullptr; }
@@ -69,12 +70,12 @@ TourInput load_input(const TourOptions& options) {
         input.matrix = planners::read_matrix_csv(options.matrix);
         return input;
     }
-    const router::StopList stops = router::read_stops_csv(options.stops);
+    input.stops = router::read_stops_csv(options.stops);
     input.router = std::make_unique<router::RoadRouter>(graph::load_road_graph(options.region));
-    input.snapped = input.router->snap_stops(stops);
+    input.snapped = input.router->snap_stops(input.stops);
     input.travel = input.router->matrix(input.snapped, router::Metric::time);
     input.matrix.costs = input.travel.seconds_matrix();
-    for (const router::Stop& stop : stops.stops) input.matrix.ids.push_back(stop.id);
+    for (const router::Stop& stop : input.stops.stops) input.matrix.ids.push_back(stop.id);
     return input;
 }
 
@@ -260,8 +261,10 @@ std::string tour_csv(const TourInput& input, const PlannedTour& tour) {
     const auto& ids = input.matrix.ids;
     std::string out;
     if (input.on_roads()) {
-        append_csv_row(out, {"visit", "stop", "lat", "lon", "seconds_from_previous", "meters_from_previous",
-                             "total_seconds", "total_meters"});
+        std::vector<std::string> header{"visit", "stop", "lat", "lon", "seconds_from_previous",
+                                        "meters_from_previous", "total_seconds", "total_meters"};
+        header.insert(header.end(), input.stops.extra_columns.begin(), input.stops.extra_columns.end());
+        append_csv_row(out, header);
     } else {
         append_csv_row(out, {"visit", "stop", "cost_from_previous", "total_cost"});
     }
@@ -269,10 +272,13 @@ std::string tour_csv(const TourInput& input, const PlannedTour& tour) {
                          double total_meters) {
         if (input.on_roads()) {
             const auto& point = input.snapped[stop].requested;
-            append_csv_row(out, {std::to_string(visit), ids[stop], format_number(point.lat()),
-                                 format_number(point.lon()), format_number(tenths(cost)),
-                                 format_number(tenths(meters)), format_number(tenths(total_cost)),
-                                 format_number(tenths(total_meters))});
+            std::vector<std::string> fields{std::to_string(visit), ids[stop], format_number(point.lat()),
+                                            format_number(point.lon()), format_number(tenths(cost)),
+                                            format_number(tenths(meters)), format_number(tenths(total_cost)),
+                                            format_number(tenths(total_meters))};
+            const auto& extra = input.stops.stops[stop].extra_values;
+            fields.insert(fields.end(), extra.begin(), extra.end());
+            append_csv_row(out, fields);
         } else {
             append_csv_row(out, {std::to_string(visit), ids[stop], format_number(cost), format_number(total_cost)});
         }
@@ -314,9 +320,15 @@ std::string tour_geojson(const TourInput& input, const PlannedTour& tour, const 
     const auto& order = tour.result.order;
     for (std::size_t visit = 0; visit < order.size(); ++visit) {
         const auto& stop = input.snapped[order[visit]];
+        json properties = {{"stop", ids[order[visit]]}, {"visit", visit}};
+        const auto& extra = input.stops.stops[order[visit]].extra_values;
+        for (std::size_t column = 0; column < extra.size(); ++column) {
+            const std::string& name = input.stops.extra_columns[column];
+            if (!properties.contains(name)) properties[name] = extra[column];
+        }
         features.push_back({{"type", "Feature"},
                             {"geometry", {{"type", "Point"}, {"coordinates", position(stop.requested)}}},
-                            {"properties", {{"stop", ids[order[visit]]}, {"visit", visit}}}});
+                            {"properties", properties}});
     }
     const auto pairs = hop_pairs(tour);
     const auto paths = hop_paths(input, tour);

@@ -274,6 +274,15 @@ TEST_CASE("tour on the Monaco road graph: seconds and metres, GeoJSON and GPX ge
     CHECK(gpx.out.find("<name>port</name>") != std::string::npos);
     CHECK(gpx.out.find("<trkpt lat=\"43.7") != std::string::npos);
 
+    // Further columns of STOPS.csv are echoed on every CSV row (GUIDE section 3).
+    ringroad::test::write_file(folder + "/named.csv", "id,lat,lon,name\nport,43.7350,7.4230,\"Quay, north\"\n"
+                                                      "casino,43.7396,7.4276,Square\n");
+    const auto named = run_ringroad({"tour", region, "--stops", folder + "/named.csv", "--format", "csv"});
+    REQUIRE(named.exit_code == 0);
+    CHECK(named.out.rfind("visit,stop,lat,lon,seconds_from_previous,meters_from_previous,total_seconds,total_meters,name\r\n", 0) == 0);
+    CHECK(named.out.find("0,port,43.735,7.423,0,0,0,0,\"Quay, north\"\r\n") != std::string::npos);
+    CHECK(named.out.find(",Square\r\n") != std::string::npos);
+
     ringroad::test::write_file(folder + "/far.csv", "id,lat,lon\nport,43.7350,7.4230\nparis,48.8566,2.3522\n");
     const auto far = run_ringroad({"tour", region, "--stops", folder + "/far.csv", "-o", folder + "/far.json"});
     CHECK(far.exit_code == 1);
