@@ -120,6 +120,7 @@ planners::TourRequest make_request(const TourOptions& options, const planners::L
     request.exact_limit = options.exact_limit;
     request.method = options.method == "tree-doubling" ? planners::TourMethod::tree_doubling
                                                        : planners::TourMethod::automatic;
+    request.stop_labels = matrix.ids;   // so the planner's messages name stops by id
     return request;
 }
 

@@ -200,6 +200,8 @@ TEST_CASE("tour: bad input exits 1 with one line and -o leaves no file") {
     ringroad::test::write_file(folder + "/short.csv", "id,a,b,c\na,0,1,1\nb,1,0,1\n");
     ringroad::test::write_file(folder + "/island.csv", "id,a,b,c\na,0,1,\nb,1,0,\nc,,,0\n");
     ringroad::test::write_file(folder + "/good.csv", "id,a,b,c\na,0,1,2\nb,1,0,1\nc,2,1,0\n");
+    // Every stop has ways in and out, yet no closed tour exists (d is only left towards b).
+    ringroad::test::write_file(folder + "/no-tour.csv", "id,a,b,c,d\na,0,1,,\nb,1,0,1,\nc,,,0,1\nd,,1,,0\n");
     struct Case { std::vector<std::string> arguments; std::string expected; };
     const std::vector<Case> cases = {
         {{"--matrix", folder + "/ragged.csv"}, "ragged.csv:3:"},
@@ -208,6 +210,7 @@ TEST_CASE("tour: bad input exits 1 with one line and -o leaves no file") {
         {{"--matrix", folder + "/twice.csv"}, "duplicate stop id 'a'"},
         {{"--matrix", folder + "/short.csv"}, "no row for stop 'c'"},
         {{"--matrix", folder + "/island.csv"}, "stop 'c'"},
+        {{"--matrix", folder + "/no-tour.csv"}, "no tour exists"},
         {{"--matrix", folder + "/absent.csv"}, "absent.csv"},
         {{"--matrix", folder + "/good.csv", "--start", "zz"}, "--start: unknown stop 'zz'"},
         {{"--matrix", folder + "/good.csv", "--end", "yy"}, "--end: unknown stop 'yy'"},
