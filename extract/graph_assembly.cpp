@@ -167,13 +167,16 @@ private:
         data_.segments.push_back(segment);
 
         const WayRule& rule = collected.rule;
+        const auto time_ds = [&](double speed_kmh) {
+            return ferry_seconds ? seconds_to_ds(*ferry_seconds) : travel_time_ds(segment.length_dm, speed_kmh);
+        };
         if (rule.forward) {
             add_edge(segment_id, segment.first_vertex, segment.last_vertex, last_node, false,
-                     ferry_seconds ? seconds_to_ds(*ferry_seconds) : travel_time_ds(segment.length_dm, rule.forward_speed_kmh), rule);
+                     time_ds(rule.forward_speed_kmh), rule);
         }
         if (rule.backward) {
             add_edge(segment_id, segment.last_vertex, segment.first_vertex, first_node, true,
-                     ferry_seconds ? seconds_to_ds(*ferry_seconds) : travel_time_ds(segment.length_dm, rule.backward_speed_kmh), rule);
+                     time_ds(rule.backward_speed_kmh), rule);
         }
     }
 

@@ -40,9 +40,14 @@ std::optional<std::vector<BlobSpan>> read_framing(const char* data, std::size_t 
         std::int64_t data_size = -1;
         protozero::pbf_reader header{data + position + 4, header_size};
         while (header.next()) {
-            if (header.tag() == 1 && header.wire_type() == protozero::pbf_wire_type::length_delimited) type = as_string_view(header.get_view());
-            else if (header.tag() == 3 && header.wire_type() == protozero::pbf_wire_type::varint) data_size = header.get_int32();
-            else header.skip();
+            const auto wire_type = header.wire_type();
+            if (header.tag() == 1 && wire_type == protozero::pbf_wire_type::length_delimited) {
+                type = as_string_view(header.get_view());
+            } else if (header.tag() == 3 && wire_type == protozero::pbf_wire_type::varint) {
+                data_size = header.get_int32();
+            } else {
+                header.skip();
+            }
         }
         const std::size_t data_begin = position + 4 + header_size;
         if (data_size < 0 || static_cast<std::size_t>(data_size) > kMaxBlobSize ||
