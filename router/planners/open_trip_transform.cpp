@@ -1,10 +1,11 @@
 #include "router/planners/open_trip_transform.hpp"
 
 #include <algorithm>
+#include <utility>
 
 namespace ringroad::planners {
 
-ClosedTripProblem close_trip(const CostMatrix& finite, bool symmetric, const TourRequest& request,
+ClosedTripProblem close_trip(CostMatrix finite, bool symmetric, const TourRequest& request,
                              double free_end_constant, double unusable) {
     ClosedTripProblem problem;
     problem.start = static_cast<int>(request.start);
@@ -12,7 +13,7 @@ ClosedTripProblem close_trip(const CostMatrix& finite, bool symmetric, const Tou
     const bool closed = request.shape == TripShape::closed ||
                         (request.shape == TripShape::open_fixed_end && request.end == request.start);
     if (closed) {
-        problem.costs = finite;
+        problem.costs = std::move(finite);
         return problem;
     }
     problem.costs = CostMatrix(n + 1, unusable);

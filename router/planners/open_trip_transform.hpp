@@ -25,7 +25,8 @@ struct ClosedTripProblem {
     double constant = 0.0;   // closed tour cost = trip cost + constant
 };
 
-ClosedTripProblem close_trip(const CostMatrix& finite_costs, bool symmetric, const TourRequest& request,
+// Takes the matrix by value: a closed tour keeps it as it is (moved, not copied).
+ClosedTripProblem close_trip(CostMatrix finite_costs, bool symmetric, const TourRequest& request,
                              double free_end_constant, double unusable);
 
 // The trip's stops in order, starting at the start; empty if the closed tour does not pass

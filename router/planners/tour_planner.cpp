@@ -16,6 +16,7 @@
 #include <chrono>
 #include <cmath>
 #include <string>
+#include <utility>
 
 namespace ringroad::planners {
 namespace {
@@ -222,11 +223,11 @@ IteratedSearchResult best_polished_construction(const SearchContext& context, co
     return best;
 }
 
-TourResult plan_heuristically(const CostMatrix& costs, const CostMatrix& finite, bool symmetric,
-                              const TourRequest& request, double ceiling) {
+TourResult plan_heuristically(const CostMatrix& costs, CostMatrix finite, bool symmetric, const TourRequest& request,
+                              double ceiling) {
     SearchContext context;
     context.unusable = 3.0 * ceiling;
-    context.problem = close_trip(finite, symmetric, request, ceiling, context.unusable);
+    context.problem = close_trip(std::move(finite), symmetric, request, ceiling, context.unusable);
     context.symmetric = symmetric;
     context.integral = all_integral(costs);
     context.budget = request.work_limit ? static_cast<double>(*request.work_limit)
@@ -284,7 +285,7 @@ TourResult plan_tour(const CostMatrix& costs, const TourRequest& request) {
     const std::size_t n = costs.size();
     const bool symmetric = is_symmetric(costs);
     const double ceiling = tour_cost_ceiling(costs);
-    const CostMatrix finite = with_missing_entries_as(costs, 3.0 * ceiling);
+    CostMatrix finite = with_missing_entries_as(costs, 3.0 * ceiling);
 
     TourResult result;
     if (request.method == TourMethod::automatic &&
@@ -293,7 +294,7 @@ TourResult plan_tour(const CostMatrix& costs, const TourRequest& request) {
     } else if (n <= 2 || (n <= 3 && symmetric)) {
         result = plan_exactly(costs, finite, request);  // every order costs the same
     } else {
-        result = plan_heuristically(costs, finite, symmetric, request, ceiling);
+        result = plan_heuristically(costs, std::move(finite), symmetric, request, ceiling);
         set_gap(result, all_integral(costs));
     }
     result.symmetric = symmetric;
