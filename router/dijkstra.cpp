@@ -6,19 +6,19 @@
 namespace ringroad::router {
 
 namespace {
-constexpr std::uint32_t kReached = 1;
-constexpr std::uint32_t kSettled = 2;
-constexpr std::uint32_t kTarget = 4;
+constexpr std::uint32_t kSettled = 1;
+constexpr std::uint32_t kTarget = 2;
+constexpr std::uint32_t kLastQuery = 0x3fffffffu;   // stamps keep the query in 30 bits
 }
 
-DijkstraWorkspace::DijkstraWorkspace(std::uint32_t node_count) { labels_.assign(node_count, Label{kUnreachableWeight, kNoNode, 0, 0, 0}); }
+DijkstraWorkspace::DijkstraWorkspace(std::uint32_t node_count) { labels_.assign(node_count, Label{kUnreachableWeight, kNoNode, 0}); }
 
 void DijkstraWorkspace::start_query(std::uint32_t node_count) {
     if (labels_.size() != node_count) {
-        labels_.assign(node_count, Label{kUnreachableWeight, kNoNode, 0, 0, 0});
+        labels_.assign(node_count, Label{kUnreachableWeight, kNoNode, 0});
         query_ = 0;
     }
-    if (++query_ == 0) {   // the stamp wrapped: old labels could look current, so clear once
+    if (++query_ > kLastQuery) {   // the stamp wrapped: old labels could look current, so clear once
         for (Label& label : labels_) label.stamp = 0;
         query_ = 1;
     }
@@ -67,25 +67,24 @@ void run_dijkstra(const RoutingGraph& graph, Metric metric, std::span<const Weig
     using Label = DijkstraWorkspace::Label;
     DijkstraWorkspace& w = workspace;
     w.start_query(graph.node_count());
-    const std::uint32_t query = w.query_;
+    const std::uint32_t fresh = w.query_ << 2;   // stamp of a label first reached in this query
     Label* const labels = w.labels_.data();
 
     std::size_t targets_left = 0;
     for (NodeId target : stop_when_settled) {
         Label& label = labels[target];
-        if (label.stamp != query) label = {kUnreachableWeight, kNoNode, query, 0, 0};
-        if (!(label.state & kTarget)) {
-            label.state |= kTarget;
+        if ((label.stamp & ~3u) != fresh) label = {kUnreachableWeight, kNoNode, fresh};
+        if (!(label.stamp & kTarget)) {
+            label.stamp |= kTarget;
             ++targets_left;
         }
     }
     for (const WeightedNode& start : starts) {
         Label& label = labels[start.node];
-        if (label.stamp != query) label = {kUnreachableWeight, kNoNode, query, 0, 0};
+        if ((label.stamp & ~3u) != fresh) label = {kUnreachableWeight, kNoNode, fresh};
         if (start.weight < label.distance) {
             label.distance = start.weight;
             label.parent = kNoNode;
-            label.state |= kReached;
             w.push(start.weight, start.node);
         }
     }
@@ -93,26 +92,25 @@ void run_dijkstra(const RoutingGraph& graph, Metric metric, std::span<const Weig
 
     const std::uint32_t* const first_arc = graph.first_arc().data();
     const NodeId* const heads = graph.arc_heads().data();
-    const PackedWeight* const weights = graph.node_weights(metric).data();
+    const PackedWeight* const weights = graph.arc_weights(metric).data();
     DijkstraWorkspace::HeapItem item{};
     while (w.pop(item)) {
         const NodeId node = item.node;
         Label& label = labels[node];
-        if (item.key != label.distance || (label.state & kSettled)) continue;   // a stale copy
-        label.state |= kSettled;
+        if (item.key != label.distance || (label.stamp & kSettled)) continue;   // a stale copy
+        label.stamp |= kSettled;
         ++w.settled_count_;
-        if ((label.state & kTarget) && --targets_left == 0 && stop_early) break;
+        if ((label.stamp & kTarget) && --targets_left == 0 && stop_early) break;
         const PackedWeight base = item.key;
         for (std::uint32_t arc = first_arc[node], end = first_arc[node + 1]; arc < end; ++arc) {
             const NodeId head = heads[arc];
-            const PackedWeight candidate = base + weights[head];
+            const PackedWeight candidate = base + weights[arc];
             Label& next = labels[head];
-            if (next.stamp != query) {
-                next = {candidate, node, query, kReached, 0};
+            if ((next.stamp & ~3u) != fresh) {
+                next = {candidate, node, fresh};
             } else if (candidate < next.distance) {
                 next.distance = candidate;
                 next.parent = node;
-                next.state |= kReached;
             } else {
                 continue;
             }

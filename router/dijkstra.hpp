@@ -27,9 +27,9 @@ public:
     // Label of a node in the last query: kUnreachableWeight if not reached (or not settled
     // before the early stop, in which case it is an upper bound, see is_settled).
     PackedWeight distance(NodeId node) const {
-        return labels_[node].stamp == query_ ? labels_[node].distance : kUnreachableWeight;
+        return labels_[node].stamp >> 2 == query_ ? labels_[node].distance : kUnreachableWeight;
     }
-    bool is_settled(NodeId node) const { return labels_[node].stamp == query_ && (labels_[node].state & 2u); }
+    bool is_settled(NodeId node) const { return labels_[node].stamp >> 2 == query_ && (labels_[node].stamp & 1u); }
     // Predecessor node on the shortest path tree, kNoNode for a start node.
     NodeId parent(NodeId node) const { return labels_[node].parent; }
     std::uint32_t settled_count() const noexcept { return settled_count_; }
@@ -40,12 +40,12 @@ public:
 private:
     friend void run_dijkstra(const RoutingGraph&, Metric, std::span<const WeightedNode>,
                              std::span<const NodeId>, DijkstraWorkspace&);
+    // 16 bytes, so four labels share a cache line.
     struct Label {
         PackedWeight distance;
         NodeId parent;
-        std::uint32_t stamp;      // == query_ when distance/parent/state belong to this query
-        std::uint32_t state;      // kReached, kSettled, or kReached|kTarget
-        std::uint32_t padding;
+        std::uint32_t stamp;      // query_ << 2 | state bits (settled, target): the label belongs
+                                  // to this query when stamp >> 2 == query_
     };
     struct HeapItem {
         PackedWeight key;

@@ -11,6 +11,7 @@
 #include <atomic>
 #include <mutex>
 #include <thread>
+#include <unordered_map>
 
 namespace ringroad::router {
 
@@ -241,10 +242,25 @@ std::vector<PackedWeight> RoadRouter::matrix(const std::vector<SnappedStop>& sou
             }
         });
     }
+    // Direct trips exist only between stops sharing a segment or a junction: look those up
+    // instead of testing all N x N pairs.
+    std::unordered_map<std::uint64_t, std::vector<std::size_t>> targets_at;
+    const auto place_keys = [](const StopEndpoints& endpoints) {
+        std::vector<std::uint64_t> keys{endpoints.segment};
+        if (endpoints.junction != graph::kNoVertex) keys.push_back((std::uint64_t{1} << 32) | endpoints.junction);
+        return keys;
+    };
+    for (std::size_t target = 0; target < targets.size(); ++target) {
+        for (std::uint64_t key : place_keys(to[target])) targets_at[key].push_back(target);
+    }
     for (std::size_t source = 0; source < sources.size(); ++source) {
-        for (std::size_t target = 0; target < targets.size(); ++target) {
-            PackedWeight& cell = result[source * targets.size() + target];
-            cell = std::min(cell, direct_weight(state.road_graph, from[source], to[target], metric));
+        for (std::uint64_t key : place_keys(from[source])) {
+            const auto found = targets_at.find(key);
+            if (found == targets_at.end()) continue;
+            for (std::size_t target : found->second) {
+                PackedWeight& cell = result[source * targets.size() + target];
+                cell = std::min(cell, direct_weight(state.road_graph, from[source], to[target], metric));
+            }
         }
     }
     return result;

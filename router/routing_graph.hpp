@@ -61,6 +61,12 @@ public:
         return node_weights_[static_cast<int>(metric)];
     }
 
+    // Per arc, the weight of its head (arc_weights(metric)[a] == node_weight(metric, arc_heads()[a])):
+    // read in step with arc_heads() so the search loop makes no random access for weights.
+    std::span<const PackedWeight> arc_weights(Metric metric) const noexcept {
+        return arc_weights_[static_cast<int>(metric)];
+    }
+
     std::span<const std::uint32_t> first_arc() const noexcept { return first_arc_; }
     std::span<const NodeId> arc_heads() const noexcept { return arc_head_; }
 
@@ -76,6 +82,7 @@ private:
     std::vector<std::uint32_t> node_time_ds_;
     std::vector<std::uint32_t> node_length_dm_;
     std::vector<PackedWeight> node_weights_[2];
+    std::vector<PackedWeight> arc_weights_[2];
     bool honours_restrictions_ = false;
     std::uint64_t fingerprint_ = 0;
 };
