@@ -66,7 +66,8 @@ TEST_CASE("on every shipped instance: lower bound <= published optimum <= tour, 
 
 TEST_CASE("symmetric bound is close to the optimum; proven optimal when the tour meets it") {
     // The Held-Karp bound is typically within about 1 % of the optimum on these instances
-    // (Johnson & McGeoch 1997 report 0.7-0.8 % on random uniform instances); 3 % is the margin.
+    // (Johnson & McGeoch 1997 report under 1 % on random uniform instances, from memory); 3 % is
+    // the margin.
     for (const char* name : {"gr24", "bays29", "eil51", "berlin52", "kroA100"}) {
         const auto instance = test::read_tsplib_file(test::fixture_path(std::string("tsplib/symmetric/") + name + ".tsp"));
         const auto optima = test::read_tsplib_optima(test::fixture_path("tsplib/symmetric/optimal.txt"));
