@@ -43,7 +43,8 @@ std::string explicit_instance(const planners::CostMatrix& costs, const std::stri
 } // namespace
 
 TEST_CASE("pcb442 canonical tour 1,2,...,n has the published length") {
-    // TSPLIB 95 documentation (Reinelt 1995), "canonical tour" check values: pcb442 221440.
+    // TSPLIB 95 documentation (Reinelt 1995), the canonical-tour lengths it lists for checking
+    // distance code: pcb442 221440 (quoted from memory; the issue cites the same value).
     const auto instance = test::read_tsplib_file(tsplib("symmetric/pcb442.tsp"));
     REQUIRE(instance.costs.size() == 442);
     CHECK(identity_tour_length(instance.costs) == 221440.0);
