@@ -460,7 +460,7 @@ void add_tour_command(CLI::App& app) {
     auto* end = command->add_option("--end", options->end, "Stop id an open trip ends at");
     auto* open = command->add_flag("--open", options->open, "Open trip with a free end");
     end->excludes(open);
-    command->add_option("--time-limit", options->time_limit, "Search time for large tours, seconds (default 1)")
+    command->add_option("--time-limit", options->time_limit, "Search effort for large tours in seconds (default 1), turned into a fixed work budget so a seed always gives the same tour")
         ->check(CLI::NonNegativeNumber);
     command->add_option("--seed", options->seed, "Seed of the randomised search (same seed, same tour)");
     command->add_option("--method", options->method, "auto (exact when small, else search + bound) or tree-doubling")
