@@ -15,9 +15,10 @@
 //
 // Steps: one multi-source Dijkstra grows a region around every site; each road piece between two
 // regions proposes a link between their sites; Kruskal keeps a minimum spanning tree of those
-// links (Mehlhorn 1988: it is also a minimum spanning tree of the sites' distance closure); each
-// link expands into its road path; shared pieces merge; a spanning tree of that subgraph is taken
-// again and branches ending at no site are pruned.
+// links (Mehlhorn 1988, cited from memory: it is also a minimum spanning tree of the sites'
+// distance closure, which tests/router/road_network_test.cpp checks against Boost); each link
+// expands into its road path; shared pieces merge; a spanning tree of that subgraph is taken again
+// and branches ending at no site are pruned.
 
 #include "graph/road_graph.hpp"
 

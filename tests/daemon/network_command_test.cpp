@@ -153,7 +153,7 @@ TEST_CASE("network on the Monaco road graph: shared road counted once, unique pi
         CHECK(pieces.insert({segment.at("segment").get<std::uint64_t>(), from}).second);   // unique
     }
     CHECK(sum == Approx(road).margin(0.05 * static_cast<double>(pieces.size())));
-    // Monaco is about 3 km across: six sites need a few km of road.
+    // Monaco is about 3 km across (from memory): six sites need a few km of road.
     CHECK(road > 2000.0);
     CHECK(road < 15000.0);
 

@@ -256,7 +256,7 @@ TEST_CASE("tour on the Monaco road graph: seconds and metres, GeoJSON and GPX ge
         meters += hop.at("meters").get<double>();
     }
     CHECK(tour.at("total_meters").get<double>() == Approx(meters).margin(0.5));
-    // Monaco is about 3 km across: a five-stop tour is a few km, not tens.
+    // Monaco is about 3 km across (from memory): a five-stop tour is a few km, not tens.
     CHECK(meters > 2000.0);
     CHECK(meters < 20000.0);
 

@@ -52,7 +52,8 @@ TEST_CASE("rows in another order than the header are matched by id") {
 }
 
 TEST_CASE("CRLF endings, quoted ids and an empty corner cell are accepted") {
-    // RFC 4180 section 2: CRLF line breaks; fields with commas and doubled quotes are quoted.
+    // RFC 4180 section 2 (from memory): CRLF line breaks; fields holding commas or doubled
+    // quotes are quoted.
     const LabelledMatrix m =
         parse_matrix_csv(",\"Depot, north\",\"Yard \"\"B\"\"\"\r\n\"Depot, north\",,5\r\n\"Yard \"\"B\"\"\",6,\r\n", "m.csv");
     REQUIRE(m.ids == std::vector<std::string>{"Depot, north", "Yard \"B\""});
@@ -68,7 +69,7 @@ TEST_CASE("writing then reading gives back the same matrix, exactly") {
     const std::size_t size = 23;
     m.costs = ringroad::planners::CostMatrix(size);
     for (std::size_t i = 0; i < size; ++i) {
-        // Every fifth id holds a comma, so writing must quote it (RFC 4180 section 2.6).
+        // Every fifth id holds a comma, so writing must quote it (RFC 4180 section 2, from memory).
         std::string id = i % 5 == 0 ? "stop, " : "s";
         id += std::to_string(i);
         m.ids.push_back(id);

@@ -3,7 +3,8 @@
 // Outside references: the Boost Graph Library (dijkstra_shortest_paths for site-to-site road
 // distances, kruskal_minimum_spanning_tree over them and over the returned subgraph,
 // connected_components), and the published guarantees of the method (Kou, Markowsky and Berman
-// 1981; Mehlhorn 1988): network <= MST of the site distances, MST <= 2(1 - 1/k) x optimum.
+// 1981; Mehlhorn 1988; citations and bound from memory): network <= MST of the site distances,
+// MST <= 2(1 - 1/k) x optimum.
 #include "router/road_network.hpp"
 
 #include "common/input_error.hpp"
@@ -112,7 +113,7 @@ TEST_CASE("Monaco: the network is a pruned tree no longer than the sites' spanni
         const auto network = plan_road_network(graph, sites);
         REQUIRE(network.links.size() == count - 1);
 
-        // Mehlhorn 1988: the links form a minimum spanning tree of the site-distance closure;
+        // Mehlhorn 1988 (from memory): the links form a minimum spanning tree of the site-distance closure;
         // checked against Boost's dijkstra_shortest_paths + kruskal_minimum_spanning_tree.
         const std::uint64_t closure_mst = boost_site_closure_mst(graph, sites);
         CHECK(network.link_length_sum_dm == closure_mst);
