@@ -37,6 +37,7 @@ public:
     graph::RoadGraphData run() {
         resolve_ways();
         mark_vertices();
+        reserve_output();
         for (std::uint32_t way = 0; way < roads_.ways.size(); ++way) add_way(way);
         match_restrictions();
         data_.names = roads_.names;
@@ -100,6 +101,25 @@ private:
             if (uses[node] >= 2 || effect != BarrierEffect::none) is_vertex_[node] = 1;
         }
         vertex_of_node_.assign(roads_.road_nodes.size(), graph::kNoVertex);
+    }
+
+    // Growing the output vectors by doubling would touch and copy several times the final memory.
+    void reserve_output() {
+        std::size_t vertices = 0;
+        for (std::size_t node = 0; node < is_vertex_.size(); ++node) vertices += is_vertex_[node];
+        std::size_t segments = 0;   // exact: one per vertex occurrence after a way's first node
+        for (std::uint32_t way = 0; way < roads_.ways.size(); ++way) {
+            if (way_begin_[way] == kSkippedWay) continue;
+            for (std::uint32_t position = way_begin_[way] + 1; position < way_end_[way]; ++position) {
+                segments += is_vertex_[resolved_[position]];
+            }
+        }
+        data_.coordinates.reserve(vertices);
+        data_.vertex_osm_ids.reserve(vertices);
+        data_.segments.reserve(segments);
+        data_.edges.reserve(2 * segments);
+        data_.shape_points.reserve(resolved_.size());
+        way_first_segment_.reserve(roads_.ways.size());
     }
 
     bool blocks(std::uint32_t node) const { return roads_.road_nodes[node].barrier.effect == BarrierEffect::blocks; }

@@ -83,11 +83,7 @@ public:
 
     void node(const osmium::Node& node) {
         const auto& ids = roads_.road_node_ids;
-        // Files are usually sorted by id: search from the last hit first.
-        auto begin = ids.begin() + static_cast<std::ptrdiff_t>(cursor_);
-        if (begin != ids.begin() && *(begin - 1) >= node.id()) begin = ids.begin();
-        const auto found = std::lower_bound(begin, ids.end(), node.id());
-        cursor_ = static_cast<std::size_t>(found - ids.begin());
+        const auto found = ids.begin() + static_cast<std::ptrdiff_t>(find_from_cursor(node.id()));
         if (found == ids.end() || *found != node.id() || !node.location().valid()) return;
         RoadNode& road_node = roads_.road_nodes[cursor_];
         road_node.found = true;
@@ -101,6 +97,23 @@ public:
     bool saw_unexpected() const noexcept { return saw_unexpected_; }
 
 private:
+    // Index of the first road node id >= `id`. Files list nodes by ascending id, and most nodes are
+    // no road nodes: gallop forward from the last position (a merge of the two sorted lists)
+    // instead of a full binary search per node; fall back to one for an out-of-order id.
+    std::size_t find_from_cursor(std::int64_t id) {
+        const auto& ids = roads_.road_node_ids;
+        if (cursor_ > 0 && ids[cursor_ - 1] >= id) cursor_ = 0;   // out of order: search everything
+        std::size_t low = cursor_, step = 1;
+        while (low + step < ids.size() && ids[low + step] < id) {
+            low += step;
+            step *= 2;
+        }
+        const std::size_t high = std::min(ids.size(), low + step + 1);
+        cursor_ = static_cast<std::size_t>(std::lower_bound(ids.begin() + static_cast<std::ptrdiff_t>(low),
+                                                            ids.begin() + static_cast<std::ptrdiff_t>(high), id) - ids.begin());
+        return cursor_;
+    }
+
     const Profile& profile_;
     CollectedRoads& roads_;
     std::size_t cursor_ = 0;
@@ -171,7 +184,9 @@ public:
         if (descriptor < 0) return;
         struct stat status {};
         if (::fstat(descriptor, &status) == 0 && status.st_size > 0) {
-            void* mapping = ::mmap(nullptr, static_cast<std::size_t>(status.st_size), PROT_READ, MAP_PRIVATE, descriptor, 0);
+            // MAP_POPULATE: the whole file is read anyway; one bulk read beats a fault per page.
+            void* mapping = ::mmap(nullptr, static_cast<std::size_t>(status.st_size), PROT_READ,
+                                   MAP_PRIVATE | MAP_POPULATE, descriptor, 0);
             if (mapping != MAP_FAILED) {
                 data_ = static_cast<const char*>(mapping);
                 size_ = static_cast<std::size_t>(status.st_size);

@@ -130,15 +130,15 @@ AccessVerdict profile_access(const osmium::TagList& tags, const Profile& profile
 
 WayRule evaluate_way(const osmium::TagList& tags, const Profile& profile) {
     WayRule rule;
+    // Most ways of an extract are buildings, land use and the like: settle those first.
+    const std::string_view highway = tag(tags, "highway");
+    const bool ferry = highway.empty() && tag(tags, "route") == "ferry";
+    if (highway.empty() && !ferry) return rule;
     if (is_one_of(tags.get_value_by_key("area"), {"yes"})) return rule;
     const AccessVerdict access = profile_access(tags, profile);
     if (access == AccessVerdict::denied) return rule;
+    if (ferry) return evaluate_ferry(tags, profile, access);
 
-    const std::string_view highway = tag(tags, "highway");
-    if (highway.empty()) {
-        if (tag(tags, "route") == "ferry") return evaluate_ferry(tags, profile, access);
-        return rule;
-    }
     const auto class_rule = profile.class_rule(highway);   // construction, proposed: no rule
     if (!class_rule) return rule;
     if (class_rule->needs_permission && access != AccessVerdict::allowed && access != AccessVerdict::destination) {
