@@ -62,52 +62,87 @@ std::optional<std::vector<BlobSpan>> read_framing(const char* data, std::size_t 
     return blobs;
 }
 
-// The raw PrimitiveBlock of a blob (uncompressed or zlib-compressed), or nullopt.
-std::optional<std::string> block_bytes(const char* data, const BlobSpan& blob) {
-    protozero::pbf_reader reader{data + blob.data_begin, blob.end - blob.data_begin};
-    std::string_view raw, compressed;
-    std::int64_t raw_size = -1;
-    while (reader.next()) {
-        switch (reader.tag()) {
-            case 1: if (reader.wire_type() != protozero::pbf_wire_type::length_delimited) return std::nullopt;
-                    raw = as_string_view(reader.get_view()); break;
-            case 2: if (reader.wire_type() != protozero::pbf_wire_type::varint) return std::nullopt;
-                    raw_size = reader.get_int32(); break;
-            case 3: if (reader.wire_type() != protozero::pbf_wire_type::length_delimited) return std::nullopt;
-                    compressed = as_string_view(reader.get_view()); break;
-            default: reader.skip();
-        }
+enum class Prefix { nodes, others, unknown, need_more };
+
+// Reads a varint at `position`; false when the bytes end first (or it is malformed).
+bool read_varint(std::string_view bytes, std::size_t& position, std::uint64_t& value) {
+    value = 0;
+    for (int shift = 0; shift < 64; shift += 7) {
+        if (position >= bytes.size()) return false;
+        const auto byte = static_cast<unsigned char>(bytes[position++]);
+        value |= static_cast<std::uint64_t>(byte & 0x7fu) << shift;
+        if ((byte & 0x80u) == 0) return true;
     }
-    if (!raw.empty()) return std::string(raw);
-    if (compressed.empty() || raw_size < 0 || static_cast<std::size_t>(raw_size) > kMaxBlobSize) return std::nullopt;
-    std::string block(static_cast<std::size_t>(raw_size), '\0');
-    uLongf length = static_cast<uLongf>(block.size());
-    if (uncompress(reinterpret_cast<Bytef*>(block.data()), &length, reinterpret_cast<const Bytef*>(compressed.data()),
-                   static_cast<uLong>(compressed.size())) != Z_OK ||
-        length != block.size()) {
-        return std::nullopt;
-    }
-    return block;
+    return false;
 }
 
-// A PrimitiveBlock's kind from its first PrimitiveGroup: nodes (1) or dense nodes (2) versus
-// ways (3), relations (4) or changesets (5).
-BlockKind block_kind(const char* data, const BlobSpan& blob) {
-    try {
-        const auto block = block_bytes(data, blob);
-        if (!block) return BlockKind::unknown;
-        protozero::pbf_reader primitive_block{*block};
-        while (primitive_block.next()) {
-            if (primitive_block.tag() != 2 || primitive_block.wire_type() != protozero::pbf_wire_type::length_delimited) {
-                primitive_block.skip();
-                continue;
-            }
-            protozero::pbf_reader group = primitive_block.get_message();
-            if (!group.next()) continue;   // an empty group says nothing
-            return group.tag() <= 2 ? BlockKind::nodes : BlockKind::others;
+// A PrimitiveBlock's kind from the start of its bytes: the field number of the first field of its
+// first PrimitiveGroup: nodes (1) or dense nodes (2) versus ways (3), relations (4) or
+// changesets (5). The string table before it is skipped; need_more when the prefix is too short.
+Prefix classify_block_prefix(std::string_view bytes) {
+    std::size_t position = 0;
+    while (true) {
+        std::uint64_t key = 0;
+        if (!read_varint(bytes, position, key)) return Prefix::need_more;
+        const auto field = key >> 3;
+        const auto wire_type = key & 7u;
+        std::uint64_t length = 0;
+        switch (wire_type) {
+            case 0: if (!read_varint(bytes, position, length)) return Prefix::need_more; continue;
+            case 1: position += 8; continue;
+            case 5: position += 4; continue;
+            case 2: if (!read_varint(bytes, position, length)) return Prefix::need_more; break;
+            default: return Prefix::unknown;
         }
-    } catch (const protozero::exception&) {
+        if (field == 2) {                  // the first PrimitiveGroup
+            if (length == 0) return Prefix::unknown;
+            std::uint64_t group_key = 0;
+            if (!read_varint(bytes, position, group_key)) return Prefix::need_more;
+            return (group_key >> 3) <= 2 ? Prefix::nodes : Prefix::others;
+        }
+        position += length;                // the string table, or anything else
     }
+}
+
+// Classifies a zlib-compressed block by inflating only as much of it as needed (usually the
+// string table and a few bytes more, a fraction of the block).
+Prefix classify_compressed(std::string_view compressed) {
+    z_stream stream{};
+    if (inflateInit(&stream) != Z_OK) return Prefix::unknown;
+    stream.next_in = reinterpret_cast<Bytef*>(const_cast<char*>(compressed.data()));
+    stream.avail_in = static_cast<uInt>(compressed.size());
+    std::string inflated;
+    Prefix result = Prefix::need_more;
+    std::size_t chunk = 16 * 1024;
+    while (result == Prefix::need_more && inflated.size() < kMaxBlobSize) {
+        const std::size_t before = inflated.size();
+        inflated.resize(before + chunk);
+        stream.next_out = reinterpret_cast<Bytef*>(inflated.data() + before);
+        stream.avail_out = static_cast<uInt>(chunk);
+        const int status = inflate(&stream, Z_NO_FLUSH);
+        inflated.resize(before + chunk - stream.avail_out);
+        result = classify_block_prefix(inflated);
+        if (result == Prefix::need_more && status != Z_OK) result = Prefix::unknown;   // ended or failed
+        chunk *= 2;
+    }
+    inflateEnd(&stream);
+    return result;
+}
+
+BlockKind block_kind(const char* data, const BlobSpan& blob) {
+    protozero::pbf_reader reader{data + blob.data_begin, blob.end - blob.data_begin};
+    std::string_view raw, compressed;
+    while (reader.next()) {
+        const bool bytes_field = reader.wire_type() == protozero::pbf_wire_type::length_delimited;
+        if (reader.tag() == 1 && bytes_field) raw = as_string_view(reader.get_view());
+        else if (reader.tag() == 3 && bytes_field) compressed = as_string_view(reader.get_view());
+        else reader.skip();
+    }
+    Prefix prefix = Prefix::unknown;
+    if (!raw.empty()) prefix = classify_block_prefix(raw);
+    else if (!compressed.empty()) prefix = classify_compressed(compressed);
+    if (prefix == Prefix::nodes) return BlockKind::nodes;
+    if (prefix == Prefix::others) return BlockKind::others;
     return BlockKind::unknown;
 }
 
