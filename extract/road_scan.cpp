@@ -235,8 +235,16 @@ bool scan_split_file(const MappedFile& mapped, const PbfLayout& layout, const Pr
     return !node_collector.saw_unexpected();
 }
 
+// libosmium copies an in-memory input whole before parsing it, so the split read costs memory in
+// proportion to the file: above this size the plain read, whose memory does not grow with the
+// file, is used instead.
+constexpr std::size_t kLargestSplitFile = std::size_t{256} * 1024 * 1024;
+
 void scan_passes(const osmium::io::File& file, const Profile& profile, Progress* progress, CollectedRoads& roads) {
-    if (file.format() == osmium::io::file_format::pbf && file.compression() == osmium::io::file_compression::none) {
+    std::error_code error;
+    const auto size = std::filesystem::file_size(file.filename(), error);
+    if (!error && size <= kLargestSplitFile && file.format() == osmium::io::file_format::pbf &&
+        file.compression() == osmium::io::file_compression::none) {
         const MappedFile mapped{file.filename()};
         if (mapped.data() != nullptr) {
             if (const auto layout = find_pbf_layout(mapped.data(), mapped.size())) {
