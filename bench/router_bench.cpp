@@ -2,13 +2,14 @@
 // ODbL 1.0), N = 100 and 1000 random stops: the Boost Graph Library's dijkstra_shortest_paths
 // (N = 100 only) against our Dijkstra on the same routing graph, and our Dijkstra matrix against
 // the contraction hierarchy's many-to-many; milliseconds, ratios, peak memory, hierarchy build
-// time and size. Usage: router_bench [extract.osm.pbf]
+// time and size; then the same on a larger random street grid. Usage: router_bench [EXTRACT] [--grid ROWS]
 #include "bench/peak_memory.hpp"
 #include "extract/road_extractor.hpp"
 #include "router/contraction_hierarchy.hpp"
 #include "router/dijkstra.hpp"
 #include "router/hierarchy_query.hpp"
 #include "router/road_router.hpp"
+#include "tests/router/test_graphs.hpp"
 
 #include <boost/graph/adjacency_list.hpp>
 #include <boost/graph/dijkstra_shortest_paths.hpp>
@@ -50,7 +51,7 @@ std::vector<SnappedStop> random_stops(const RoadRouter& router, std::size_t coun
         const graph::Coordinate at = graph.coordinate(vertex);
         const double lat = at.lat() + (static_cast<double>(random() % 1000) - 500.0) * 1e-6;
         const double lon = at.lon() + (static_cast<double>(random() % 1000) - 500.0) * 1e-6;
-        stops.push_back(router.snap("s" + std::to_string(stops.size()), lat, lon));
+        stops.push_back(router.snap(std::string("s").append(std::to_string(stops.size())), lat, lon));
     }
     return stops;
 }
@@ -64,21 +65,11 @@ std::vector<NodeId> departure_nodes_of(const RoadRouter& router, const std::vect
     return nodes;
 }
 
-} // namespace
-
-int main(int argc, char** argv) {
-    const std::string path = argc > 1 ? argv[1] : std::string(RINGROAD_FIXTURES_DIR) + "/osm/andorra.osm.pbf";
+void run_suite(const graph::RoadGraph& road_graph) {
     const unsigned cores = std::max(1u, std::thread::hardware_concurrency());
-    std::printf("router benchmark on %s (%u cores)\n", path.c_str(), cores);
-
+    std::printf("%u junctions, %u edges, %zu turn restrictions, %u cores\n", road_graph.vertex_count(),
+                road_graph.edge_count(), road_graph.turn_restrictions().size(), cores);
     auto start = std::chrono::steady_clock::now();
-    extract::ExtractOptions options;
-    options.input_path = path;
-    graph::RoadGraph road_graph = extract::extract_and_build_road_graph(options, nullptr);
-    std::printf("extract: %.0f ms, %u junctions, %u edges, %zu turn restrictions\n", milliseconds_since(start),
-                road_graph.vertex_count(), road_graph.edge_count(), road_graph.turn_restrictions().size());
-
-    start = std::chrono::steady_clock::now();
     RoadRouter router(road_graph);
     const RoutingGraph& routing_graph = router.routing_graph();
     std::printf("routing graph + snap index: %.0f ms, %u nodes, %u turn arcs\n", milliseconds_since(start),
@@ -175,6 +166,43 @@ int main(int argc, char** argv) {
                     hierarchy_cpu, hierarchy_ms, dijkstra_cpu / hierarchy_cpu);
         if (differences != 0) std::printf("| MISMATCH between engines | %zu cells | | |\n", differences);
     }
-    std::printf("\npeak memory: %.0f MiB\n", bench::peak_memory_mib());
+    std::printf("\npeak memory so far: %.0f MiB\n\n", bench::peak_memory_mib());
+}
+
+} // namespace
+
+// Usage: router_bench [EXTRACT.osm.pbf] [--grid ROWS]   (default: Andorra, then a 200 x 200 grid)
+int main(int argc, char** argv) {
+    std::string path = std::string(RINGROAD_FIXTURES_DIR) + "/osm/andorra.osm.pbf";
+    std::uint32_t grid_rows = 200;
+    for (int i = 1; i < argc; ++i) {
+        const std::string argument = argv[i];
+        if (argument == "--grid" && i + 1 < argc) {
+            grid_rows = static_cast<std::uint32_t>(std::stoul(argv[++i]));
+        } else {
+            path = argument;
+        }
+    }
+    auto start = std::chrono::steady_clock::now();
+    extract::ExtractOptions options;
+    options.input_path = path;
+    const graph::RoadGraph extract_graph = extract::extract_and_build_road_graph(options, nullptr);
+    std::printf("## %s (extracted in %.0f ms)\n", path.c_str(), milliseconds_since(start));
+    run_suite(extract_graph);
+
+    if (grid_rows > 0) {
+        // The synthetic region generator of the demo issue has not landed; a random street grid
+        // (tests/router/test_graphs.hpp: one-ways, missing streets, turn restrictions) shows how
+        // the engines scale beyond the small real extracts.
+        test::RandomGridOptions grid;
+        grid.rows = grid_rows;
+        grid.columns = grid_rows;
+        grid.restrictions = grid_rows * grid_rows / 50;
+        grid.seed = 2024;
+        start = std::chrono::steady_clock::now();
+        const graph::RoadGraph grid_graph = test::random_grid_graph(grid);
+        std::printf("## random street grid %u x %u (generated in %.0f ms)\n", grid_rows, grid_rows, milliseconds_since(start));
+        run_suite(grid_graph);
+    }
     return 0;
 }

@@ -14,8 +14,8 @@ namespace {
 
 // Witness searches stop after this many settled nodes: a missed witness only adds a needless
 // shortcut, never a wrong answer. The estimate for priorities can afford less.
-constexpr std::uint32_t kWitnessSettleLimit = 400;
-constexpr std::uint32_t kEstimateSettleLimit = 60;
+constexpr std::uint32_t kWitnessSettleLimit = 100;
+constexpr std::uint32_t kEstimateSettleLimit = 30;
 
 struct DynamicArc {
     NodeId other;

@@ -106,7 +106,7 @@ TEST_CASE("RoadRouter matrices and routes agree between engines for snapped mid-
     std::mt19937_64 random(8);
     std::uniform_real_distribution<double> lat(17.0, 17.0 + 29 * 0.0009), lon(-140.0, -140.0 + 29 * 0.00095);
     std::vector<SnappedStop> stops;
-    for (int k = 0; k < 80; ++k) stops.push_back(router.snap("s" + std::to_string(k), lat(random), lon(random)));
+    for (int k = 0; k < 80; ++k) stops.push_back(router.snap(std::string("s").append(std::to_string(k)), lat(random), lon(random)));
     for (Metric metric : {Metric::time, Metric::distance}) {
         const TravelMatrix by_dijkstra = router.matrix(stops, metric, Engine::dijkstra);
         const TravelMatrix by_hierarchy = router.matrix(stops, metric, Engine::hierarchy);

@@ -50,7 +50,7 @@ std::vector<SnappedStop> random_stops(const RoadRouter& router, std::size_t coun
             lat += (static_cast<double>(random() % 900) - 450.0) * 1e-6;
             lon += (static_cast<double>(random() % 900) - 450.0) * 1e-6;
         }
-        stops.push_back(router.snap("s" + std::to_string(stops.size()), lat, lon));
+        stops.push_back(router.snap(std::string("s").append(std::to_string(stops.size())), lat, lon));
     }
     return stops;
 }
