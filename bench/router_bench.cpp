@@ -171,10 +171,10 @@ void run_suite(const graph::RoadGraph& road_graph) {
 
 } // namespace
 
-// Usage: router_bench [EXTRACT.osm.pbf] [--grid ROWS]   (default: Andorra, then a 200 x 200 grid)
+// Usage: router_bench [EXTRACT.osm.pbf] [--grid ROWS]   (default: Andorra, then a 120 x 120 grid)
 int main(int argc, char** argv) {
     std::string path = std::string(RINGROAD_FIXTURES_DIR) + "/osm/andorra.osm.pbf";
-    std::uint32_t grid_rows = 200;
+    std::uint32_t grid_rows = 120;
     for (int i = 1; i < argc; ++i) {
         const std::string argument = argv[i];
         if (argument == "--grid" && i + 1 < argc) {
