@@ -72,9 +72,10 @@ public:
                 queue.push({current, node});
                 continue;
             }
-            const std::vector<NodeId> neighbours = contract(node);
+            contract(node);
             result.rank[node] = next_rank++;
-            for (NodeId neighbour : neighbours) queue.push({priority(neighbour), neighbour});
+            // Neighbours keep their queued (usually lower) priority: they are re-evaluated when
+            // they reach the top ("lazy updates"), which spares a simulated contraction each.
             if (progress && next_rank % 1024 == 0) progress->update(static_cast<double>(next_rank) / node_count_);
         }
         result.first_arc.assign(node_count_ + 1, 0);
