@@ -194,13 +194,8 @@ std::vector<SnappedStop> RoadRouter::snap_stops(const StopList& stops) const {
 }
 
 TravelMatrix RoadRouter::matrix(const std::vector<SnappedStop>& stops, Metric metric, Engine engine) const {
-    TravelMatrix result(stops.size(), metric);
-    const std::vector<PackedWeight> weights = matrix(stops, stops, metric, engine);
-    for (std::size_t from = 0; from < stops.size(); ++from) {
-        for (std::size_t to = 0; to < stops.size(); ++to) {
-            result.set_weight(from, to, from == to ? 0 : weights[from * stops.size() + to]);
-        }
-    }
+    TravelMatrix result(stops.size(), metric, matrix(stops, stops, metric, engine));
+    for (std::size_t stop = 0; stop < stops.size(); ++stop) result.set_weight(stop, stop, 0);
     return result;
 }
 

@@ -8,6 +8,7 @@
 
 #include <cstddef>
 #include <cstdint>
+#include <utility>
 #include <vector>
 
 namespace ringroad::router {
@@ -17,6 +18,11 @@ public:
     TravelMatrix() = default;
     TravelMatrix(std::size_t size, Metric metric)
         : size_(size), metric_(metric), weights_(size * size, kUnreachableWeight) {}
+    // Takes row-major packed weights (size * size of them) as they are.
+    TravelMatrix(std::size_t size, Metric metric, std::vector<PackedWeight> weights)
+        : size_(size), metric_(metric), weights_(std::move(weights)) {
+        weights_.resize(size * size, kUnreachableWeight);
+    }
 
     std::size_t size() const noexcept { return size_; }
     Metric metric() const noexcept { return metric_; }
