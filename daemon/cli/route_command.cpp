@@ -94,6 +94,8 @@ nlohmann::json line_string(const router::RoutePath& path) {
     for (const graph::Coordinate& point : path.geometry) {
         coordinates.push_back({degrees(point.lon_e7), degrees(point.lat_e7)});
     }
+    // RFC 7946 wants two or more positions; a route from a point to itself repeats it.
+    if (coordinates.size() == 1) coordinates.push_back(coordinates.front());
     return {{"type", "LineString"}, {"coordinates", coordinates}};
 }
 
