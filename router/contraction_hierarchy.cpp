@@ -99,8 +99,9 @@ private:
         return 2 * (shortcuts - removed) + contracted_neighbours_[node] + depth_[node];
     }
 
-    // Returns the neighbours whose priority may have changed.
-    std::vector<NodeId> contract(NodeId node) {
+    // Adds the shortcuts, records the node's upward arcs and removes it from the graph; its
+    // neighbours' contracted-neighbour and depth terms grow.
+    void contract(NodeId node) {
         shortcuts_needed(node, /*add=*/true, kWitnessSettleLimit);
         record_upward_arcs(node);
         std::vector<NodeId> neighbours;
@@ -121,7 +122,6 @@ private:
         contracted_[node] = 1;
         std::vector<DynamicArc>().swap(out_[node]);
         std::vector<DynamicArc>().swap(in_[node]);
-        return neighbours;
     }
 
     // The arcs of a node at the moment it is contracted all lead to higher nodes.
