@@ -163,3 +163,44 @@ TEST_CASE("Real extracts: travel time is at least the straight-line distance at 
         }
     }
 }
+
+TEST_CASE("Real extracts: unpacked routes are connected road pieces whose geometry has the route's length",
+          "[real][paths]") {
+    // The outside reference for lengths is the haversine formula over the extract's own node
+    // positions (the polyline ringroad draws), compared with the integer lengths summed by the
+    // search: unpacking shortcuts must give back exactly the roads that were paid for.
+    for (const char* name : kExtracts) {
+        const RoadRouter router(real_graph(name));
+        const graph::RoadGraph& graph = router.road_graph();
+        const std::vector<SnappedStop> stops = random_stops(router, 40, false, 41);
+        for (std::size_t i = 0; i + 1 < stops.size(); ++i) {
+            const auto path = router.route(stops[i], stops[i + 1], Metric::time, Engine::hierarchy);
+            if (!path) continue;
+            INFO(name << " route " << i);
+            std::uint64_t time_sum = 0, length_sum = 0;
+            for (std::size_t k = 0; k < path->pieces.size(); ++k) {
+                const PathPiece& piece = path->pieces[k];
+                time_sum += piece.time_ds;
+                length_sum += piece.length_dm;
+                REQUIRE((piece.from_fraction == piece.to_fraction || piece.forward == (piece.from_fraction < piece.to_fraction)));
+                if (k == 0) continue;
+                // Each piece starts where the previous one ended.
+                const PathPiece& previous = path->pieces[k - 1];
+                const graph::Segment& before = graph.segments()[previous.segment];
+                const graph::Segment& after = graph.segments()[piece.segment];
+                const graph::VertexId left = previous.forward ? before.last_vertex : before.first_vertex;
+                const graph::VertexId entered = piece.forward ? after.first_vertex : after.last_vertex;
+                REQUIRE(left == entered);
+            }
+            REQUIRE(time_sum == path->time_ds);
+            REQUIRE(length_sum == path->length_dm);
+            REQUIRE(graph::haversine_meters(path->geometry.front(), stops[i].on_road) < 0.5);
+            REQUIRE(graph::haversine_meters(path->geometry.back(), stops[i + 1].on_road) < 0.5);
+            double polyline = 0.0;
+            for (std::size_t k = 1; k < path->geometry.size(); ++k) {
+                polyline += graph::haversine_meters(path->geometry[k - 1], path->geometry[k]);
+            }
+            REQUIRE(polyline == Approx(path->meters()).epsilon(0.005).margin(1.0));
+        }
+    }
+}
