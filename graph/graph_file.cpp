@@ -11,6 +11,7 @@
 
 #include <algorithm>
 #include <bit>
+#include <charconv>
 #include <cstddef>
 #include <cerrno>
 #include <cstring>
@@ -267,7 +268,8 @@ private:
             graph.first_out_.back() != graph.edges_.size()) {
             fail("inconsistent section sizes");
         }
-        graph.component_count_ = static_cast<std::uint32_t>(std::stoul("0" + graph.metadata_value("components")));
+        const std::string components = graph.metadata_value("components");
+        std::from_chars(components.data(), components.data() + components.size(), graph.component_count_);
 
         static const std::string core[] = {"meta", "coordinates", "vertex_osm_ids", "first_out", "edges",
                                            "segments", "shape_points", "names", "restrictions", "components"};

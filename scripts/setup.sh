@@ -1,6 +1,8 @@
 #!/usr/bin/env bash
 # Installs what ringroad needs on Debian 12 (only what is missing; sudo when not root), then
-# configures and builds it in build/. Safe to run again: it does only what is left to do.
+# configures and builds it in build/: everything, or only the CMake targets named as arguments
+# (`scripts/setup.sh ringroad` builds just the program). Safe to run again: it does only what is
+# left to do.
 set -euo pipefail
 cd "$(dirname "$0")/.."
 
@@ -19,4 +21,6 @@ if [ ${#missing[@]} -gt 0 ]; then
 fi
 
 cmake -S . -B build -DCMAKE_BUILD_TYPE=Release >/dev/null
-cmake --build build -j"$(nproc)" >&2
+targets=()
+for target in "$@"; do targets+=(--target "$target"); done
+cmake --build build -j"$(nproc)" "${targets[@]}" >&2

@@ -8,12 +8,14 @@
 #include "daemon/cli/commands.hpp"
 #include "extract/road_extractor.hpp"
 #include "graph/graph_file.hpp"
+#include "router/contraction_hierarchy.hpp"
 
 #include <CLI/CLI.hpp>
 
 #include <fcntl.h>
 #include <unistd.h>
 
+#include <charconv>
 #include <cstdio>
 #include <filesystem>
 #include <memory>
@@ -28,6 +30,7 @@ struct BuildArguments {
     std::string output;
     std::string profile = "car";
     bool quiet = false;
+    bool no_hierarchy = false;
 };
 
 // Fails before the (long) extraction when the output could not be written anyway.
@@ -48,10 +51,17 @@ void check_output_folder(const std::string& output) {
     if (fs::is_directory(output, error)) throw InputError(output + ": is a folder, not a file name");
 }
 
+// A count from the graph's metadata; 0 when absent.
+std::uint64_t metadata_count(const graph::RoadGraph& graph, const char* key) {
+    const std::string text = graph.metadata_value(key);
+    std::uint64_t value = 0;
+    std::from_chars(text.data(), text.data() + text.size(), value);
+    return value;
+}
+
+// The same figure `ringroad info` prints: roads open in at least one direction.
 double road_km(const graph::RoadGraph& graph) {
-    std::uint64_t decimetres = 0;
-    for (const auto& segment : graph.segments()) decimetres += segment.length_dm;
-    return static_cast<double>(decimetres) / 10000.0;
+    return static_cast<double>(metadata_count(graph, "road_length_dm")) / 10000.0;
 }
 
 std::string count_of(std::uint64_t count, const char* singular, const char* plural) {
@@ -63,7 +73,7 @@ void print_summary(const graph::RoadGraph& graph, const BuildArguments& argument
     for (std::uint32_t component : graph.components()) main_junctions += component == 0 ? 1 : 0;
     std::fprintf(stderr,
                  "Built %s from %s (%s profile): %s, %s, %.1f km of road; %s, the main one with %s; "
-                 "%s stored (%s read, %s unmatched); %s skipped for nodes missing from the extract; %.1f s.\n",
+                 "%s stored (%s read, %s unmatched); %s skipped for nodes missing from the extract; %s; %.1f s.\n",
                  arguments.output.c_str(), arguments.input.c_str(), arguments.profile.c_str(),
                  count_of(graph.vertex_count(), "junction", "junctions").c_str(),
                  count_of(graph.edge_count(), "edge", "edges").c_str(), road_km(graph),
@@ -72,13 +82,23 @@ void print_summary(const graph::RoadGraph& graph, const BuildArguments& argument
                  count_of(graph.turn_restrictions().size(), "turn restriction", "turn restrictions").c_str(),
                  graph.metadata_value("restrictions_read").c_str(),
                  graph.metadata_value("restrictions_unmatched").c_str(),
-                 count_of(std::stoull("0" + graph.metadata_value("ways_missing_nodes")), "way", "ways").c_str(), seconds);
+                 count_of(metadata_count(graph, "ways_missing_nodes"), "way", "ways").c_str(),
+                 graph.extra_sections().empty() ? "no contraction hierarchy" : "contraction hierarchy built",
+                 seconds);
 }
 
 graph::RoadGraph build_graph_from_extract(const BuildArguments& arguments, Progress& progress) {
     const auto profile = extract::profile_from_name(arguments.profile);
     if (!profile) throw InputError("--profile: unknown profile '" + arguments.profile + "'", "profile");
     return extract::extract_and_build_road_graph({arguments.input, *profile}, &progress);
+}
+
+// The hierarchy is built once here rather than at every load: it is the slow part of
+// preparing a region, and every later command maps it from the file.
+graph::RoadGraph add_contraction_hierarchy(const graph::RoadGraph& graph, Progress& progress) {
+    auto sections = router::build_hierarchy_sections(graph, router::RestrictionPolicy::automatic, &progress);
+    progress.finish();
+    return graph::attach_sections(graph, std::move(sections));
 }
 
 void write_graph(const graph::RoadGraph& graph, const std::string& output, Progress& progress) {
@@ -91,8 +111,7 @@ void run_build(const BuildArguments& arguments) {
     check_output_folder(arguments.output);
     Progress progress{arguments.quiet};
     graph::RoadGraph graph = build_graph_from_extract(arguments, progress);
-    // Routing preparation between "graph built" and "graph written": the contraction-hierarchy
-    // build (with its --no-hierarchy flag) goes here, attaching its sections to `graph`.
+    if (!arguments.no_hierarchy) graph = add_contraction_hierarchy(graph, progress);
     write_graph(graph, arguments.output, progress);
     if (!arguments.quiet) print_summary(graph, arguments, progress.elapsed_seconds());
 }
@@ -107,6 +126,8 @@ void add_build_command(CLI::App& app) {
     command->add_option("--profile", arguments->profile, "Mode of travel: car (default), bicycle or foot")
         ->check(CLI::IsMember({"car", "bicycle", "foot"}));
     command->add_flag("--quiet", arguments->quiet, "No progress and no summary on stderr");
+    command->add_flag("--no-hierarchy", arguments->no_hierarchy,
+                      "Skip the contraction hierarchy (smaller, faster build; slower matrices)");
     command->callback([arguments] { run_build(*arguments); });
 }
 
