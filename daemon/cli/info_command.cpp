@@ -3,6 +3,7 @@
 
 #include "common/input_error.hpp"
 #include "daemon/cli/commands.hpp"
+#include "daemon/cli/output.hpp"
 #include "graph/graph_file.hpp"
 
 #include <CLI/CLI.hpp>
@@ -86,7 +87,7 @@ void add_info_command(CLI::App& app) {
     command->callback([path, as_json] {
         const graph::RoadGraph graph = graph::load_road_graph(*path);
         if (*as_json) {
-            std::cout << info_json(graph, *path).dump(2) << '\n';
+            std::cout << info_json(graph, *path).dump(kJsonIndent) << '\n';
         } else {
             print_text(graph, *path);
         }

@@ -13,6 +13,7 @@
 #include "common/input_error.hpp"
 #include "common/safety_notice.hpp"
 #include "daemon/cli/commands.hpp"
+#include "daemon/cli/output.hpp"
 #include "graph/graph_file.hpp"
 #include "router/road_router.hpp"
 
@@ -111,7 +112,7 @@ std::string json_report(const router::RoadRouter& router, const router::StopList
     const nlohmann::json report{{"ids", ids},       {"metric", metric},         {"engine", engine},
                                 {"seconds", seconds}, {"meters", meters},       {"snapped", snapped_list},
                                 {"unreachable", unreachable}, {"caution", kSafetyNotice}};
-    return report.dump(1) + "\n";
+    return report.dump(kJsonIndent) + "\n";
 }
 
 void report_unreachable(const router::StopList& stops, const router::TravelMatrix& matrix) {
@@ -129,14 +130,6 @@ void report_unreachable(const router::StopList& stops, const router::TravelMatri
     if (count > shown) names += ", and " + std::to_string(count - shown) + " more";
     std::cerr << "ringroad: " << count << " unreachable pair" << (count == 1 ? "" : "s") << " (no route): " << names
               << '\n';
-}
-
-void emit(const std::string& path, const std::string& content) {
-    if (path.empty() || path == "-") {
-        std::cout << content;
-    } else {
-        write_file_atomically(path, content);
-    }
 }
 
 void run_matrix(const MatrixArguments& arguments) {
@@ -160,13 +153,13 @@ void run_matrix(const MatrixArguments& arguments) {
             : "hierarchy";
 
     if (arguments.format == "json") {
-        emit(arguments.output, json_report(road_router, stops, snapped, matrix, arguments.metric, engine_used));
+        emit_output(arguments.output, json_report(road_router, stops, snapped, matrix, arguments.metric, engine_used));
     } else {
         const bool time = *metric == router::Metric::time;
         const std::string primary = csv_table(stops, matrix, time);
         if (!arguments.second_table.empty()) write_file_atomically(arguments.second_table, csv_table(stops, matrix, !time));
-        emit(arguments.output, primary);
-        std::cerr << "ringroad: caution: " << kSafetyNotice << '\n';
+        emit_output(arguments.output, primary);
+        print_caution();
     }
     report_unreachable(stops, matrix);
 }

@@ -11,10 +11,10 @@
 //    geojson).
 // Output goes to stdout, or atomically to -o FILE (nothing half-written on error).
 
-#include "common/atomic_file.hpp"
 #include "common/input_error.hpp"
 #include "common/safety_notice.hpp"
 #include "daemon/cli/commands.hpp"
+#include "daemon/cli/output.hpp"
 #include "graph/graph_file.hpp"
 #include "router/planners/matrix_csv.hpp"
 #include "router/planners/matrix_diagnostics.hpp"
@@ -29,7 +29,6 @@
 #include <cmath>
 #include <cstdio>
 #include <cstdlib>
-#include <iostream>
 #include <memory>
 #include <string>
 #include <vector>
@@ -208,22 +207,18 @@ void run_network(const NetworkOptions& options) {
     if (!options.matrix.empty()) {
         json out = matrix_network_json(options);
         out["caution"] = kSafetyNotice;
-        text = out.dump(2) + "\n";
+        text = out.dump(kJsonIndent) + "\n";
     } else {
         const RoadNetworkAnswer answer = plan_on_roads(options);
         json out = road_network_json(answer);
         if (options.format == "geojson") {
-            text = road_network_geojson(answer, out).dump(2) + "\n";
+            text = road_network_geojson(answer, out).dump(kJsonIndent) + "\n";
         } else {
             out["caution"] = kSafetyNotice;
-            text = out.dump(2) + "\n";
+            text = out.dump(kJsonIndent) + "\n";
         }
     }
-    if (options.output.empty()) {
-        std::cout << text << std::flush;
-    } else {
-        write_file_atomically(options.output, text);
-    }
+    emit_output(options.output, text);
 }
 
 } // namespace

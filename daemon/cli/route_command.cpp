@@ -5,11 +5,11 @@
 // merged; unnamed roads have a null name), and the geometry as a GeoJSON LineString (RFC 7946,
 // lon/lat) or a GPX 1.1 track. Every format carries the caution.
 
-#include "common/atomic_file.hpp"
 #include "common/csv_reader.hpp"
 #include "common/input_error.hpp"
 #include "common/safety_notice.hpp"
 #include "daemon/cli/commands.hpp"
+#include "daemon/cli/output.hpp"
 #include "graph/graph_file.hpp"
 #include "router/road_router.hpp"
 #include "router/stops.hpp"
@@ -19,7 +19,6 @@
 
 #include <cmath>
 #include <cstdio>
-#include <iostream>
 #include <memory>
 #include <optional>
 #include <string>
@@ -105,20 +104,6 @@ nlohmann::json stop_json(const router::SnappedStop& stop) {
             {"snap_meters", one_decimal(stop.snap_distance_meters)}};
 }
 
-std::string xml_escape(const std::string& text) {
-    std::string out;
-    for (char c : text) {
-        switch (c) {
-        case '&': out += "&amp;"; break;
-        case '<': out += "&lt;"; break;
-        case '>': out += "&gt;"; break;
-        case '"': out += "&quot;"; break;
-        default: out += c;
-        }
-    }
-    return out;
-}
-
 std::string gpx_track(const router::RoutePath& path) {
     std::string out = "<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n"
                       "<gpx version=\"1.1\" creator=\"ringroad\" xmlns=\"http://www.topografix.com/GPX/1/1\">\n"
@@ -158,19 +143,15 @@ void run_route(const RouteArguments& arguments) {
                                         {"metric", arguments.metric}, {"roads", roads_json(roads)},
                                         {"caution", kSafetyNotice}};
         const nlohmann::json feature{{"type", "Feature"}, {"geometry", line_string(*path)}, {"properties", properties}};
-        content = nlohmann::json{{"type", "FeatureCollection"}, {"features", {feature}}}.dump(1) + "\n";
+        content = nlohmann::json{{"type", "FeatureCollection"}, {"features", {feature}}}.dump(kJsonIndent) + "\n";
     } else {
         const nlohmann::json report{{"seconds", path->seconds()},  {"meters", path->meters()},
                                     {"metric", arguments.metric},  {"from", stop_json(start)},
                                     {"to", stop_json(end)},        {"roads", roads_json(roads)},
                                     {"geometry", line_string(*path)}, {"caution", kSafetyNotice}};
-        content = report.dump(1) + "\n";
+        content = report.dump(kJsonIndent) + "\n";
     }
-    if (arguments.output.empty() || arguments.output == "-") {
-        std::cout << content;
-    } else {
-        write_file_atomically(arguments.output, content);
-    }
+    emit_output(arguments.output, content);
 }
 
 } // namespace

@@ -7,11 +7,11 @@
 // and reports metres alongside; with a bare MATRIX.csv it minimises the matrix's own cost.
 // Output goes to stdout, or atomically to -o FILE (nothing half-written on error).
 
-#include "common/atomic_file.hpp"
 #include "common/csv_writer.hpp"
 #include "common/input_error.hpp"
 #include "common/safety_notice.hpp"
 #include "daemon/cli/commands.hpp"
+#include "daemon/cli/output.hpp"
 #include "graph/graph_file.hpp"
 #include "router/planners/matrix_csv.hpp"
 #include "router/planners/matrix_diagnostics.hpp"
@@ -25,7 +25,6 @@
 #include <cmath>
 #include <cstdio>
 #include <cstdlib>
-#include <iostream>
 #include <memory>
 #include <optional>
 #include <string>
@@ -347,22 +346,7 @@ std::string tour_geojson(const TourInput& input, const PlannedTour& tour, const 
                             "caution"}) {
         collection[key] = summary[key];
     }
-    return collection.dump(2) + "\n";
-}
-
-std::string xml_escape(const std::string& text) {
-    std::string out;
-    for (const char c : text) {
-        switch (c) {
-        case '&': out += "&amp;"; break;
-        case '<': out += "&lt;"; break;
-        case '>': out += "&gt;"; break;
-        case '"': out += "&quot;"; break;
-        case '\'': out += "&apos;"; break;
-        default: out += c;
-        }
-    }
-    return out;
+    return collection.dump(kJsonIndent) + "\n";
 }
 
 std::string gpx_point(const char* tag, const graph::Coordinate& point) {
@@ -390,14 +374,6 @@ std::string tour_gpx(const TourInput& input, const PlannedTour& tour) {
     }
     out += "  </trk>\n</gpx>\n";
     return out;
-}
-
-void emit(const std::string& output_path, const std::string& text) {
-    if (output_path.empty()) {
-        std::cout << text << std::flush;
-    } else {
-        write_file_atomically(output_path, text);
-    }
 }
 
 void check_options(const TourOptions& options) {
@@ -435,15 +411,15 @@ void run_tour(const TourOptions& options) {
     std::string text;
     if (options.format == "csv") {
         text = tour_csv(input, tour);
-        std::cerr << "ringroad: " << kSafetyNotice << '\n';
+        print_caution();
     } else if (options.format == "geojson") {
         text = tour_geojson(input, tour, options);
     } else if (options.format == "gpx") {
         text = tour_gpx(input, tour);
     } else {
-        text = tour_json(input, tour, options).dump(2) + "\n";
+        text = tour_json(input, tour, options).dump(kJsonIndent) + "\n";
     }
-    emit(options.output, text);
+    emit_output(options.output, text);
 }
 
 } // namespace

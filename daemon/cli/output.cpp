@@ -1,0 +1,36 @@
+#include "daemon/cli/output.hpp"
+
+#include "common/atomic_file.hpp"
+#include "common/safety_notice.hpp"
+
+#include <iostream>
+
+namespace ringroad::cli {
+
+void emit_output(const std::string& path, std::string_view text) {
+    if (path.empty() || path == "-") {
+        std::cout << text << std::flush;
+    } else {
+        write_file_atomically(path, text);
+    }
+}
+
+void print_caution() { std::cerr << "ringroad: caution: " << kSafetyNotice << '\n'; }
+
+std::string xml_escape(std::string_view text) {
+    std::string out;
+    out.reserve(text.size());
+    for (const char c : text) {
+        switch (c) {
+        case '&': out += "&amp;"; break;
+        case '<': out += "&lt;"; break;
+        case '>': out += "&gt;"; break;
+        case '"': out += "&quot;"; break;
+        case '\'': out += "&apos;"; break;
+        default: out += c;
+        }
+    }
+    return out;
+}
+
+} // namespace ringroad::cli
