@@ -1,7 +1,6 @@
 #include "router/dijkstra.hpp"
 
 #include <algorithm>
-#include <bit>
 
 namespace ringroad::router {
 
@@ -9,6 +8,7 @@ namespace {
 constexpr std::uint32_t kSettled = 1;
 constexpr std::uint32_t kTarget = 2;
 constexpr std::uint32_t kLastQuery = 0x3fffffffu;   // stamps keep the query in 30 bits
+constexpr PackedWeight kSentinelKey = kUnreachableWeight;
 }
 
 DijkstraWorkspace::DijkstraWorkspace(std::uint32_t node_count) { labels_.assign(node_count, Label{kUnreachableWeight, kNoNode, 0}); }
@@ -22,37 +22,51 @@ void DijkstraWorkspace::start_query(std::uint32_t node_count) {
         for (Label& label : labels_) label.stamp = 0;
         query_ = 1;
     }
-    for (auto& bucket : buckets_) bucket.clear();
+    std::fill(heap_.begin(), heap_.begin() + static_cast<std::ptrdiff_t>(std::min(heap_.size(), heap_size_)),
+              HeapItem{kSentinelKey, kNoNode});
     heap_size_ = 0;
-    last_popped_ = 0;
+    final_labels_.clear();
     settled_count_ = 0;
 }
 
 void DijkstraWorkspace::push(PackedWeight key, NodeId node) {
-    const int bucket = key == last_popped_ ? 0 : 64 - std::countl_zero(key ^ last_popped_);
-    buckets_[bucket].push_back({key, node});
-    ++heap_size_;
+    if (heap_size_ + 5 > heap_.size()) heap_.resize(std::max<std::size_t>(64, 2 * heap_.size()), {kSentinelKey, kNoNode});
+    HeapItem* const items = heap_.data();
+    std::size_t hole = heap_size_++;
+    while (hole > 0) {
+        const std::size_t parent = (hole - 1) / 4;
+        if (items[parent].key <= key) break;
+        items[hole] = items[parent];
+        hole = parent;
+    }
+    items[hole] = {key, node};
 }
 
-bool DijkstraWorkspace::pop(HeapItem& item) {
-    if (heap_size_ == 0) return false;
-    if (buckets_[0].empty()) {
-        int bucket = 1;
-        while (buckets_[bucket].empty()) ++bucket;
-        std::vector<HeapItem>& source = buckets_[bucket];
-        PackedWeight smallest = source.front().key;
-        for (const HeapItem& candidate : source) smallest = std::min(smallest, candidate.key);
-        last_popped_ = smallest;
-        for (const HeapItem& moved : source) {
-            const int target = moved.key == last_popped_ ? 0 : 64 - std::countl_zero(moved.key ^ last_popped_);
-            buckets_[target].push_back(moved);
-        }
-        source.clear();
+DijkstraWorkspace::HeapItem DijkstraWorkspace::pop() {
+    HeapItem* const items = heap_.data();
+    const HeapItem top = items[0];
+    const std::size_t last_index = --heap_size_;
+    const HeapItem last = items[last_index];
+    items[last_index] = {kSentinelKey, kNoNode};
+    if (last_index == 0) return top;
+    // Walk the hole down to a leaf along the smallest children (sentinels never win)...
+    std::size_t hole = 0;
+    for (std::size_t first = 1; first < last_index; first = 4 * hole + 1) {
+        const std::size_t left = first + (items[first + 1].key < items[first].key);
+        const std::size_t right = first + 2 + (items[first + 3].key < items[first + 2].key);
+        const std::size_t smallest = items[right].key < items[left].key ? right : left;
+        items[hole] = items[smallest];
+        hole = smallest;
     }
-    item = buckets_[0].back();
-    buckets_[0].pop_back();
-    --heap_size_;
-    return true;
+    // ...then lift the former last item from there.
+    while (hole > 0) {
+        const std::size_t parent = (hole - 1) / 4;
+        if (items[parent].key <= last.key) break;
+        items[hole] = items[parent];
+        hole = parent;
+    }
+    items[hole] = last;
+    return top;
 }
 
 std::vector<NodeId> DijkstraWorkspace::tree_path(NodeId node) const {
@@ -91,20 +105,29 @@ void run_dijkstra(const RoutingGraph& graph, Metric metric, std::span<const Weig
     const bool stop_early = !stop_when_settled.empty();
 
     const std::uint32_t* const first_arc = graph.first_arc().data();
-    const NodeId* const heads = graph.arc_heads().data();
-    const PackedWeight* const weights = graph.arc_weights(metric).data();
-    DijkstraWorkspace::HeapItem item{};
-    while (w.pop(item)) {
-        const NodeId node = item.node;
+    const RoutingGraph::SearchArc* const arcs = graph.search_arcs(metric).data();
+    std::vector<NodeId>& final_labels = w.final_labels_;
+    for (;;) {
+        NodeId node;
+        PackedWeight base;
+        if (!final_labels.empty()) {
+            node = final_labels.back();
+            final_labels.pop_back();
+            base = labels[node].distance;
+        } else {
+            if (w.heap_size_ == 0) break;
+            const DijkstraWorkspace::HeapItem item = w.pop();
+            node = item.node;
+            base = item.key;
+            if (base != labels[node].distance || (labels[node].stamp & kSettled)) continue;   // a stale copy
+        }
         Label& label = labels[node];
-        if (item.key != label.distance || (label.stamp & kSettled)) continue;   // a stale copy
         label.stamp |= kSettled;
         ++w.settled_count_;
         if ((label.stamp & kTarget) && --targets_left == 0 && stop_early) break;
-        const PackedWeight base = item.key;
         for (std::uint32_t arc = first_arc[node], end = first_arc[node + 1]; arc < end; ++arc) {
-            const NodeId head = heads[arc];
-            const PackedWeight candidate = base + weights[arc];
+            const NodeId head = arcs[arc].head;
+            const PackedWeight candidate = base + arcs[arc].weight;
             Label& next = labels[head];
             if ((next.stamp & ~3u) != fresh) {
                 next = {candidate, node, fresh};
@@ -114,7 +137,13 @@ void run_dijkstra(const RoutingGraph& graph, Metric metric, std::span<const Weig
             } else {
                 continue;
             }
-            w.push(candidate, head);
+            // Through the head's only incoming arc, from a final label, the head's label is
+            // final too: it skips the heap.
+            if (arcs[arc].only_arc_into_head) {
+                final_labels.push_back(head);
+            } else {
+                w.push(candidate, head);
+            }
         }
     }
 }

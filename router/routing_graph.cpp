@@ -116,9 +116,13 @@ RoutingGraph::RoutingGraph(const graph::RoadGraph& road_graph, RestrictionPolicy
         for (NodeId node = 0; node < node_count; ++node) {
             weights[node] = pack_weight(metric, node_time_ds_[node], node_length_dm_[node]);
         }
-        std::vector<PackedWeight>& per_arc = arc_weights_[static_cast<int>(metric)];
+        std::vector<SearchArc>& per_arc = search_arcs_[static_cast<int>(metric)];
         per_arc.resize(arc_head_.size());
-        for (std::size_t arc = 0; arc < arc_head_.size(); ++arc) per_arc[arc] = weights[arc_head_[arc]];
+        for (std::size_t arc = 0; arc < arc_head_.size(); ++arc) {
+            const NodeId head = arc_head_[arc];
+            const bool only_arc = first_reverse_arc_[head + 1] - first_reverse_arc_[head] == 1;
+            per_arc[arc] = {head, only_arc ? 1u : 0u, weights[head]};
+        }
     }
 
     std::uint64_t hash = 14695981039346656037ull;

@@ -61,10 +61,17 @@ public:
         return node_weights_[static_cast<int>(metric)];
     }
 
-    // Per arc, the weight of its head (arc_weights(metric)[a] == node_weight(metric, arc_heads()[a])):
-    // read in step with arc_heads() so the search loop makes no random access for weights.
-    std::span<const PackedWeight> arc_weights(Metric metric) const noexcept {
-        return arc_weights_[static_cast<int>(metric)];
+    // Per arc, what a search needs in one 16-byte record: the head, the head's weight
+    // (search_arcs(metric)[a].weight == node_weight(metric, arc_heads()[a])), and whether this
+    // arc is the head's only incoming arc. A search reads them in step, with no random access
+    // but the head's label.
+    struct SearchArc {
+        NodeId head;
+        std::uint32_t only_arc_into_head;   // 1 when the head has exactly one predecessor
+        PackedWeight weight;
+    };
+    std::span<const SearchArc> search_arcs(Metric metric) const noexcept {
+        return search_arcs_[static_cast<int>(metric)];
     }
 
     std::span<const std::uint32_t> first_arc() const noexcept { return first_arc_; }
@@ -82,7 +89,7 @@ private:
     std::vector<std::uint32_t> node_time_ds_;
     std::vector<std::uint32_t> node_length_dm_;
     std::vector<PackedWeight> node_weights_[2];
-    std::vector<PackedWeight> arc_weights_[2];
+    std::vector<SearchArc> search_arcs_[2];
     bool honours_restrictions_ = false;
     std::uint64_t fingerprint_ = 0;
 };
