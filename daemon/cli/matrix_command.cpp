@@ -14,6 +14,7 @@
 #include "common/safety_notice.hpp"
 #include "daemon/cli/commands.hpp"
 #include "daemon/cli/output.hpp"
+#include "daemon/cli/snap_radius_option.hpp"
 #include "graph/graph_file.hpp"
 #include "router/road_router.hpp"
 
@@ -135,7 +136,6 @@ void report_unreachable(const router::StopList& stops, const router::TravelMatri
 void run_matrix(const MatrixArguments& arguments) {
     const auto metric = router::metric_from_name(arguments.metric);
     const auto engine = router::engine_from_name(arguments.engine);
-    if (!(arguments.snap_radius > 0.0)) throw InputError("--snap-radius: must be a positive number of metres", "snap-radius");
     if (!arguments.second_table.empty() && arguments.format != "csv") {
         throw InputError("--second-table: only with --format csv", "second-table");
     }
@@ -176,7 +176,7 @@ void add_matrix_command(CLI::App& app) {
     command->add_option("--format", arguments->format, "csv or json")->check(CLI::IsMember({"csv", "json"}));
     command->add_option("--engine", arguments->engine, "auto, hierarchy or dijkstra")
         ->check(CLI::IsMember({"auto", "hierarchy", "dijkstra"}));
-    command->add_option("--snap-radius", arguments->snap_radius, "Farthest a stop may be from a road, metres (500)");
+    add_snap_radius_option(*command, arguments->snap_radius);
     command->add_option("-o,--output", arguments->output, "Output file (default: standard output)");
     command->add_option("--second-table", arguments->second_table,
                         "CSV only: write the other quantity (metres for time, seconds for distance) here");

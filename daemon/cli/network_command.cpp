@@ -15,6 +15,7 @@
 #include "common/safety_notice.hpp"
 #include "daemon/cli/commands.hpp"
 #include "daemon/cli/output.hpp"
+#include "daemon/cli/snap_radius_option.hpp"
 #include "graph/graph_file.hpp"
 #include "router/planners/matrix_csv.hpp"
 #include "router/planners/matrix_diagnostics.hpp"
@@ -47,6 +48,7 @@ struct NetworkOptions {
     bool metric_closure = false;
     std::string format = "json";
     std::string output;
+    double snap_radius = 0;
 };
 
 double tenths_of(std::uint64_t decimetres) { return static_cast<double>(decimetres) / 10.0; }
@@ -107,7 +109,7 @@ RoadNetworkAnswer plan_on_roads(const NetworkOptions& options) {
     std::vector<router::NetworkSite> sites;
     for (const router::Stop& stop : stops.stops) {
         try {
-            answer.sites.push_back(snapper.snap(stop.id, stop.lat, stop.lon, router::kDefaultSnapRadiusMeters));
+            answer.sites.push_back(snapper.snap(stop.id, stop.lat, stop.lon, options.snap_radius));
         } catch (const InputError& error) {
             throw InputError(stops.source + ":" + std::to_string(stop.line) + ": " + error.what(), error.field());
         }
@@ -240,6 +242,7 @@ void add_network_command(CLI::App& app) {
     command->add_option("--format", options->format, "json (default) or geojson (needs a road graph)")
         ->check(CLI::IsMember({"json", "geojson"}));
     command->add_option("-o,--output", options->output, "Write to this file (atomically) instead of stdout");
+    add_snap_radius_option(*command, options->snap_radius);
     command->callback([options] { run_network(*options); });
 }
 

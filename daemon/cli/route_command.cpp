@@ -10,6 +10,7 @@
 #include "common/safety_notice.hpp"
 #include "daemon/cli/commands.hpp"
 #include "daemon/cli/output.hpp"
+#include "daemon/cli/snap_radius_option.hpp"
 #include "graph/graph_file.hpp"
 #include "router/road_router.hpp"
 #include "router/stops.hpp"
@@ -123,7 +124,6 @@ std::string gpx_track(const router::RoutePath& path) {
 void run_route(const RouteArguments& arguments) {
     const LatLon from = parse_lat_lon(arguments.from, "from");
     const LatLon to = parse_lat_lon(arguments.to, "to");
-    if (!(arguments.snap_radius > 0.0)) throw InputError("--snap-radius: must be a positive number of metres", "snap-radius");
     const router::Metric metric = *router::metric_from_name(arguments.metric);
     const router::Engine engine = *router::engine_from_name(arguments.engine);
     router::RouterOptions options;
@@ -168,7 +168,7 @@ void add_route_command(CLI::App& app) {
         ->check(CLI::IsMember({"time", "distance"}));
     command->add_option("--engine", arguments->engine, "auto, hierarchy or dijkstra")
         ->check(CLI::IsMember({"auto", "hierarchy", "dijkstra"}));
-    command->add_option("--snap-radius", arguments->snap_radius, "Farthest a point may be from a road, metres (500)");
+    add_snap_radius_option(*command, arguments->snap_radius);
     command->add_option("-o,--output", arguments->output, "Output file (default: standard output)");
     command->callback([arguments] { run_route(*arguments); });
 }

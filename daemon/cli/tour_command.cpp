@@ -12,6 +12,7 @@
 #include "common/safety_notice.hpp"
 #include "daemon/cli/commands.hpp"
 #include "daemon/cli/output.hpp"
+#include "daemon/cli/snap_radius_option.hpp"
 #include "graph/graph_file.hpp"
 #include "router/planners/matrix_csv.hpp"
 #include "router/planners/matrix_diagnostics.hpp"
@@ -50,6 +51,7 @@ struct TourOptions {
     bool metric_closure = false;
     std::string format = "json";
     std::string output;
+    double snap_radius = 0;
 };
 
 // The stops and what a hop between them costs: a bare matrix, or travel times on a road graph
@@ -70,7 +72,9 @@ TourInput load_input(const TourOptions& options) {
         return input;
     }
     input.stops = router::read_stops_csv(options.stops);
-    input.router = std::make_unique<router::RoadRouter>(graph::load_road_graph(options.region));
+    router::RouterOptions router_options;
+    router_options.snap_radius_meters = options.snap_radius;
+    input.router = std::make_unique<router::RoadRouter>(graph::load_road_graph(options.region), router_options);
     input.snapped = input.router->snap_stops(input.stops);
     input.travel = input.router->matrix(input.snapped, router::Metric::time);
     input.matrix.costs = input.travel.seconds_matrix();
@@ -448,6 +452,7 @@ void add_tour_command(CLI::App& app) {
     command->add_option("--format", options->format, "json (default), csv, geojson or gpx (the last two need a road graph)")
         ->check(CLI::IsMember({"json", "csv", "geojson", "gpx"}));
     command->add_option("-o,--output", options->output, "Write to this file (atomically) instead of stdout");
+    add_snap_radius_option(*command, options->snap_radius);
     command->callback([options] { run_tour(*options); });
 }
 
