@@ -148,7 +148,11 @@ double tidy(double value) {
     return std::strtod(buffer, nullptr);
 }
 
-json number_or_null(double value) { return std::isfinite(value) ? json(tidy(value)) : json(nullptr); }
+std::string format_significant(double value, int digits) {
+    char buffer[40];
+    std::snprintf(buffer, sizeof buffer, "%.*g", digits, value);
+    return buffer;
+}
 
 json diagnostics_json(const planners::MatrixDiagnostics& report, const std::vector<std::string>& ids) {
     json missing = json::array();
@@ -229,8 +233,13 @@ json tour_json(const TourInput& input, const PlannedTour& tour, const TourOption
     } else {
         out["cost"] = tidy(result.cost);
     }
-    out["lower_bound"] = number_or_null(result.lower_bound);
-    out["gap"] = number_or_null(result.gap);
+    // On roads the bound is in seconds like the tour: shown in tenths, rounded down so it stays
+    // a bound. The gap is a ratio: four significant digits say all it means.
+    const bool bound_known = std::isfinite(result.lower_bound);
+    out["lower_bound"] = !bound_known ? json(nullptr)
+                         : input.on_roads() ? json(std::floor(result.lower_bound * 10.0 + 1e-9) / 10.0)
+                                            : json(tidy(result.lower_bound));
+    out["gap"] = std::isfinite(result.gap) ? json(std::stod(format_significant(result.gap, 4))) : json(nullptr);
     out["proven_optimal"] = result.proven_optimal;
     out["method"] = result.method;
     out["seed"] = options.seed;
