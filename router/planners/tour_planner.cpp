@@ -33,7 +33,8 @@ constexpr std::size_t kMostBoundIterations = 3000;
 // Trips this small are always solved exactly: the heuristics need room for their moves.
 constexpr std::size_t kAlwaysExactStops = 5;
 constexpr std::size_t kCandidatesPerCity = 10;
-// Christofides' matching sorts all k^2 pairs of the k odd tree vertices; beyond this many
+// Christofides' construction builds the k^2 matrix of the k odd tree vertices and matches them
+// (blossom matching up to kLargestExactMatching odd vertices, greedy above); beyond this many
 // cities the other constructions are used alone.
 constexpr std::size_t kLargestChristofides = 1200;
 // Above this many cities greedy edge looks at candidate connections only (memory).
@@ -166,8 +167,11 @@ std::vector<Construction> construct_tours(const ClosedTripProblem& problem, bool
     std::vector<Construction> tours;
     const bool large = problem.costs.size() > kLargestAllPairsGreedy;
     tours.push_back({"greedy-edge", greedy_edge_tour(problem.costs, symmetric, large ? &nearest : nullptr)});
-    if (symmetric && problem.costs.size() <= kLargestChristofides)
-        tours.push_back({"christofides-greedy-matching", christofides_tour(problem.costs, problem.start)});
+    if (symmetric && problem.costs.size() <= kLargestChristofides) {
+        ChristofidesTour christofides_result = christofides(problem.costs, problem.start);
+        tours.push_back({christofides_result.minimum_weight_matching ? "christofides" : "christofides-greedy-matching",
+                         std::move(christofides_result.tour)});
+    }
     tours.push_back({"nearest-neighbour", nearest_neighbour_tour(problem.costs, problem.start)});
     tours.push_back({"tree-doubling", tree_doubling_tour(problem.costs, problem.start)});
     return tours;
