@@ -119,7 +119,8 @@ void run_dijkstra(const RoutingGraph& graph, Metric metric, std::span<const Weig
             const DijkstraWorkspace::HeapItem item = w.pop();
             node = item.node;
             base = item.key;
-            if (base != labels[node].distance || (labels[node].stamp & kSettled)) continue;   // a stale copy
+            // A stale copy: the node's better copy came first (or it was scanned from the stack).
+            if (labels[node].stamp & kSettled) continue;
         }
         Label& label = labels[node];
         label.stamp |= kSettled;

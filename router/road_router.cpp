@@ -4,6 +4,7 @@
 #include "router/dijkstra.hpp"
 #include "router/hierarchy_query.hpp"
 #include "router/stop_endpoints.hpp"
+#include "router/weight_buffer.hpp"
 #include "common/input_error.hpp"
 
 #include <algorithm>
@@ -212,7 +213,7 @@ std::vector<PackedWeight> RoadRouter::matrix(const std::vector<SnappedStop>& sou
         for (const StopEndpoints& endpoints : to) ends.push_back(arrival_nodes(endpoints, metric));
         result = hierarchy_many_to_many(state.hierarchy(metric), starts, ends, options_.threads);
     } else {
-        result.assign(sources.size() * targets.size(), kUnreachableWeight);
+        result = make_weight_buffer(sources.size() * targets.size(), kUnreachableWeight);
         std::vector<std::vector<WeightedNode>> ends;
         std::vector<NodeId> stop_set;
         for (const StopEndpoints& endpoints : to) {
