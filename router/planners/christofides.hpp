@@ -14,10 +14,12 @@
 
 namespace ringroad::planners {
 
-// Measured on the development machine (Release), random plane points: the blossom matching
-// takes 0.001 s at 100 odd cities, 0.08 s at 500 and 0.5 s at 1000 (TSPLIB odd sets are
-// quicker: dsj1000's 428 in 0.02 s); 700 keeps it near a fifth of the default 1 s limit.
-inline constexpr std::size_t kLargestExactMatching = 700;
+// Measured on the development machine (Release, idle), random plane points: the blossom
+// matching takes 0.001 s at 100 odd cities, 0.02-0.03 s at 500, 0.12-0.15 s at 1000 and
+// 0.27 s at 1500 (2-4 times longer while other jobs share the two cores); the TSPLIB odd sets
+// are quicker (pcb442: 192 in 0.009 s, rat575: 272 in 0.005 s, dsj1000: 428 in 0.02 s).
+// 1000 keeps the matching near a tenth of the default 1 s limit.
+inline constexpr std::size_t kLargestExactMatching = 1000;
 
 struct ChristofidesTour {
     ClosedTour tour;

@@ -34,7 +34,7 @@ constexpr std::size_t kMostBoundIterations = 3000;
 constexpr std::size_t kAlwaysExactStops = 5;
 constexpr std::size_t kCandidatesPerCity = 10;
 // Christofides' construction builds the k^2 matrix of the k odd tree vertices and matches them
-// (blossom matching up to kLargestExactMatching odd vertices, greedy above); beyond this many
+// (blossom matching up to kLargestExactMatching odd vertices, greedy above: christofides.hpp); beyond this many
 // cities the other constructions are used alone.
 constexpr std::size_t kLargestChristofides = 1200;
 // Above this many cities greedy edge looks at candidate connections only (memory).

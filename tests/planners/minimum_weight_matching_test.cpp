@@ -12,6 +12,7 @@
 #include <boost/graph/maximum_weighted_matching.hpp>
 #include <catch2/catch.hpp>
 
+#include <algorithm>
 #include <cmath>
 #include <fstream>
 #include <random>
@@ -258,4 +259,24 @@ TEST_CASE("Christofides tours are within 1.5 times the TSPLIB optimum") {
         ++checked;
     }
     CHECK(checked >= 25);
+}
+
+TEST_CASE("Christofides falls back to the greedy matching above its odd-city limit, and says so") {
+    // Reference: TSPLIB kroA100 (Reinelt 1991); a tour is a permutation of the cities, and the
+    // exact-matching tour keeps Christofides' 1.5 bound (published optimum 21282, margin n).
+    const auto instance = test::read_tsplib_file(test::fixture_path("tsplib/symmetric/kroA100.tsp"));
+    const planners::ChristofidesTour exact = planners::christofides(instance.costs, 3);
+    const planners::ChristofidesTour greedy = planners::christofides(instance.costs, 3, 0);
+    CHECK(exact.minimum_weight_matching);
+    CHECK_FALSE(greedy.minimum_weight_matching);
+    for (const auto* result : {&exact, &greedy}) {
+        std::vector<int> sorted = result->tour;
+        std::sort(sorted.begin(), sorted.end());
+        std::vector<int> cities(100);
+        for (int i = 0; i < 100; ++i) cities[static_cast<std::size_t>(i)] = i;
+        CHECK(sorted == cities);
+        CHECK(result->tour.front() == 3);
+    }
+    CHECK(planners::closed_tour_cost(instance.costs, exact.tour) <= 1.5 * 21282 + 100);
+    CHECK(planners::christofides_tour(instance.costs, 3) == exact.tour);
 }
