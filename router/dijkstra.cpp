@@ -25,14 +25,18 @@ void DijkstraWorkspace::start_query(std::uint32_t node_count) {
     std::fill(heap_.begin(), heap_.begin() + static_cast<std::ptrdiff_t>(std::min(heap_.size(), heap_size_)),
               HeapItem{kSentinelKey, kNoNode});
     heap_size_ = 0;
-    final_labels_.clear();
     settled_count_ = 0;
 }
 
-void DijkstraWorkspace::push(PackedWeight key, NodeId node) {
-    if (heap_size_ + 5 > heap_.size()) heap_.resize(std::max<std::size_t>(64, 2 * heap_.size()), {kSentinelKey, kNoNode});
-    HeapItem* const items = heap_.data();
-    std::size_t hole = heap_size_++;
+namespace {
+
+using HeapItem = DijkstraWorkspace::HeapItem;
+
+// 4-ary heap on a raw array (see dijkstra.hpp); the search keeps array and size in locals so
+// that label stores, which the compiler must assume may alias workspace members, do not force
+// them to be reloaded.
+inline void heap_push(HeapItem* items, std::size_t& size, PackedWeight key, NodeId node) {
+    std::size_t hole = size++;
     while (hole > 0) {
         const std::size_t parent = (hole - 1) / 4;
         if (items[parent].key <= key) break;
@@ -42,10 +46,9 @@ void DijkstraWorkspace::push(PackedWeight key, NodeId node) {
     items[hole] = {key, node};
 }
 
-DijkstraWorkspace::HeapItem DijkstraWorkspace::pop() {
-    HeapItem* const items = heap_.data();
+inline HeapItem heap_pop(HeapItem* items, std::size_t& size) {
     const HeapItem top = items[0];
-    const std::size_t last_index = --heap_size_;
+    const std::size_t last_index = --size;
     const HeapItem last = items[last_index];
     items[last_index] = {kSentinelKey, kNoNode};
     if (last_index == 0) return top;
@@ -67,6 +70,13 @@ DijkstraWorkspace::HeapItem DijkstraWorkspace::pop() {
     }
     items[hole] = last;
     return top;
+}
+
+} // namespace
+
+void DijkstraWorkspace::reserve_heap(std::size_t items) {
+    // Four sentinel slots beyond the last item, always.
+    if (items + 5 > heap_.size()) heap_.resize(std::max<std::size_t>({64, 2 * heap_.size(), items + 5}), {kSentinelKey, kNoNode});
 }
 
 std::vector<NodeId> DijkstraWorkspace::tree_path(NodeId node) const {
@@ -99,24 +109,32 @@ void run_dijkstra(const RoutingGraph& graph, Metric metric, std::span<const Weig
         if (start.weight < label.distance) {
             label.distance = start.weight;
             label.parent = kNoNode;
-            w.push(start.weight, start.node);
+            w.reserve_heap(w.heap_size_ + 1);
+            heap_push(w.heap_.data(), w.heap_size_, start.weight, start.node);
         }
     }
     const bool stop_early = !stop_when_settled.empty();
 
     const std::uint32_t* const first_arc = graph.first_arc().data();
     const RoutingGraph::SearchArc* const arcs = graph.search_arcs(metric).data();
-    std::vector<NodeId>& final_labels = w.final_labels_;
+    // Each node enters the stack of final labels at most once per query (its only incoming arc
+    // is relaxed once), so the stack needs no bounds checks.
+    if (w.final_labels_.size() < graph.node_count()) w.final_labels_.resize(graph.node_count());
+    NodeId* const final_labels = w.final_labels_.data();
+    std::size_t final_count = 0;
+    HeapItem* items = w.heap_.data();
+    std::size_t heap_size = w.heap_size_;
+    std::size_t heap_capacity = w.heap_.size();   // including the four sentinel slots
+    std::uint32_t settled_count = 0;
     for (;;) {
         NodeId node;
         PackedWeight base;
-        if (!final_labels.empty()) {
-            node = final_labels.back();
-            final_labels.pop_back();
+        if (final_count > 0) {
+            node = final_labels[--final_count];
             base = labels[node].distance;
         } else {
-            if (w.heap_size_ == 0) break;
-            const DijkstraWorkspace::HeapItem item = w.pop();
+            if (heap_size == 0) break;
+            const HeapItem item = heap_pop(items, heap_size);
             node = item.node;
             base = item.key;
             // A stale copy: the node's better copy came first (or it was scanned from the stack).
@@ -124,9 +142,16 @@ void run_dijkstra(const RoutingGraph& graph, Metric metric, std::span<const Weig
         }
         Label& label = labels[node];
         label.stamp |= kSettled;
-        ++w.settled_count_;
+        ++settled_count;
         if ((label.stamp & kTarget) && --targets_left == 0 && stop_early) break;
-        for (std::uint32_t arc = first_arc[node], end = first_arc[node + 1]; arc < end; ++arc) {
+        const std::uint32_t end = first_arc[node + 1];
+        if (heap_size + (end - first_arc[node]) + 5 > heap_capacity) {
+            w.heap_size_ = heap_size;
+            w.reserve_heap(heap_size + (end - first_arc[node]));
+            items = w.heap_.data();
+            heap_capacity = w.heap_.size();
+        }
+        for (std::uint32_t arc = first_arc[node]; arc < end; ++arc) {
             const NodeId head = arcs[arc].head;
             const PackedWeight candidate = base + arcs[arc].weight;
             Label& next = labels[head];
@@ -141,12 +166,14 @@ void run_dijkstra(const RoutingGraph& graph, Metric metric, std::span<const Weig
             // Through the head's only incoming arc, from a final label, the head's label is
             // final too: it skips the heap.
             if (arcs[arc].only_arc_into_head) {
-                final_labels.push_back(head);
+                final_labels[final_count++] = head;
             } else {
-                w.push(candidate, head);
+                heap_push(items, heap_size, candidate, head);
             }
         }
     }
+    w.heap_size_ = heap_size;
+    w.settled_count_ = settled_count;
 }
 
 } // namespace ringroad::router

@@ -31,6 +31,11 @@ struct WeightedNode {
 
 class DijkstraWorkspace {
 public:
+    struct HeapItem {
+        PackedWeight key;
+        NodeId node;
+    };
+
     explicit DijkstraWorkspace(std::uint32_t node_count = 0);
 
     // Label of a node in the last query: kUnreachableWeight if not reached (or not settled
@@ -56,20 +61,15 @@ private:
         std::uint32_t stamp;      // query_ << 2 | state bits (settled, target): the label belongs
                                   // to this query when stamp >> 2 == query_
     };
-    struct HeapItem {
-        PackedWeight key;
-        NodeId node;
-    };
     void start_query(std::uint32_t node_count);
-    void push(PackedWeight key, NodeId node);
-    HeapItem pop();   // the smallest item (heap not empty); stale copies are the caller's to skip
+    void reserve_heap(std::size_t items);
 
     std::vector<Label> labels_;
     // 4-ary heap: the children of i are 4i + 1 .. 4i + 4. Slots from heap_size_ on hold
     // sentinels (largest key), so every node has four children to compare without bounds checks.
     std::vector<HeapItem> heap_;
     std::size_t heap_size_ = 0;
-    std::vector<NodeId> final_labels_;   // reached through their only incoming arc: final, unscanned
+    std::vector<NodeId> final_labels_;   // stack: reached through their only incoming arc, final, unscanned
     std::uint32_t query_ = 0;
     std::uint32_t settled_count_ = 0;
 };
