@@ -104,7 +104,8 @@ private:
     void contract(NodeId node) {
         shortcuts_needed(node, /*add=*/true, kWitnessSettleLimit);
         record_upward_arcs(node);
-        std::vector<NodeId> neighbours;
+        std::vector<NodeId>& neighbours = scratch_neighbours_;
+        neighbours.clear();
         for (const DynamicArc& arc : out_[node]) {
             erase_arc(in_[arc.other], node);
             neighbours.push_back(arc.other);
@@ -158,9 +159,12 @@ private:
         PackedWeight longest_out = 0;
         for (const DynamicArc& arc : out_[node]) longest_out = std::max(longest_out, arc.weight);
         std::int64_t count = 0;
-        // Copies: adding shortcuts may grow other nodes' lists, never this node's.
-        const std::vector<DynamicArc> incoming = in_[node];
-        const std::vector<DynamicArc> outgoing = out_[node];
+        // Copies, in reused buffers: adding shortcuts grows the neighbours' lists while these
+        // are read.
+        std::vector<DynamicArc>& incoming = scratch_in_;
+        std::vector<DynamicArc>& outgoing = scratch_out_;
+        incoming.assign(in_[node].begin(), in_[node].end());
+        outgoing.assign(out_[node].begin(), out_[node].end());
         for (const DynamicArc& in_arc : incoming) {
             const NodeId source = in_arc.other;
             witness_search(source, node, in_arc.weight + longest_out, outgoing, settle_limit);
@@ -249,6 +253,9 @@ private:
     std::vector<std::uint32_t> target_stamp_;
     std::uint32_t witness_query_ = 0;
     std::vector<std::pair<PackedWeight, NodeId>> heap_;
+    std::vector<DynamicArc> scratch_in_;
+    std::vector<DynamicArc> scratch_out_;
+    std::vector<NodeId> scratch_neighbours_;
 };
 
 // Section header for one metric's hierarchy (layout in router/HIERARCHY.md).
