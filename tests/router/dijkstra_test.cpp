@@ -111,3 +111,45 @@ TEST_CASE("Dijkstra from several weighted starts takes the best start", "[dijkst
         REQUIRE(workspace.distance(node) == (expected == inf ? kUnreachableWeight : expected));
     }
 }
+
+TEST_CASE("Dijkstra: starts on nodes with a single incoming arc are still improved through it", "[dijkstra]") {
+    // Such nodes bypass the heap once their only predecessor is scanned; a start label there
+    // may be beaten by the path through that predecessor. Reference: BGL from each start.
+    test::RandomGridOptions options;
+    options.seed = 5;
+    const graph::RoadGraph road_graph = test::random_grid_graph(options);
+    const RoutingGraph routing_graph(road_graph, RestrictionPolicy::honour);
+    const test::BglGraph reference = test::to_bgl(routing_graph, Metric::time);
+    // The free start: a node reaching most of the graph (the grid has one-ways and gaps).
+    const std::uint64_t inf = std::numeric_limits<std::uint64_t>::max();
+    NodeId hub = 0;
+    std::vector<std::uint64_t> from_hub;
+    for (;; ++hub) {
+        from_hub = test::bgl_distances(reference, hub);
+        const auto reached = std::count_if(from_hub.begin(), from_hub.end(), [&](std::uint64_t d) { return d != inf; });
+        if (2 * static_cast<std::size_t>(reached) > from_hub.size()) break;
+    }
+    std::vector<WeightedNode> starts{{hub, 0}};
+    for (NodeId node = 1; node < routing_graph.node_count() && starts.size() < 6; node += 7) {
+        // 5 s more than the way from the hub, which (through the only predecessor) must win.
+        if (routing_graph.predecessors(node).size() == 1 && from_hub[node] != inf) {
+            starts.push_back({node, from_hub[node] + pack_weight(Metric::time, 50, 0)});
+        }
+    }
+    REQUIRE(starts.size() == 6);
+    DijkstraWorkspace workspace(routing_graph.node_count());
+    run_dijkstra(routing_graph, Metric::time, starts, {}, workspace);
+    std::vector<std::uint64_t> expected(routing_graph.node_count(), inf);
+    for (const WeightedNode& start : starts) {
+        const std::vector<std::uint64_t> from = test::bgl_distances(reference, start.node);
+        for (NodeId node = 0; node < routing_graph.node_count(); ++node) {
+            if (from[node] != inf) expected[node] = std::min(expected[node], from[node] + start.weight);
+        }
+    }
+    std::size_t improved_starts = 0;
+    for (const WeightedNode& start : starts) improved_starts += expected[start.node] < start.weight;
+    REQUIRE(improved_starts == starts.size() - 1);   // the case this test is about occurs
+    for (NodeId node = 0; node < routing_graph.node_count(); ++node) {
+        REQUIRE(workspace.distance(node) == (expected[node] == inf ? kUnreachableWeight : expected[node]));
+    }
+}
