@@ -1,5 +1,7 @@
 #include "router/road_network.hpp"
 
+#include "router/planners/disjoint_sets.hpp"
+
 #include "common/input_error.hpp"
 
 #include <algorithm>
@@ -17,6 +19,7 @@ namespace ringroad::router {
 
 namespace {
 
+using planners::DisjointSets;
 using graph::SegmentId;
 using graph::VertexId;
 using PointId = std::uint32_t;   // a graph vertex, or vertex_count + site index
@@ -155,26 +158,6 @@ SiteRegions grow_regions(const PieceGraph& roads, std::size_t site_count) {
     return regions;
 }
 
-class DisjointSets {
-public:
-    explicit DisjointSets(std::size_t count) : parent_(count) {
-        std::iota(parent_.begin(), parent_.end(), std::size_t{0});
-    }
-    std::size_t find(std::size_t item) {
-        while (parent_[item] != item) item = parent_[item] = parent_[parent_[item]];
-        return item;
-    }
-    bool unite(std::size_t a, std::size_t b) {
-        a = find(a);
-        b = find(b);
-        if (a == b) return false;
-        parent_[std::max(a, b)] = std::min(a, b);
-        return true;
-    }
-
-private:
-    std::vector<std::size_t> parent_;
-};
 
 // A link proposed by a piece joining two regions: its length and the bridging piece.
 struct Bridge {

@@ -1,43 +1,17 @@
 #include "router/planners/spanning_tree.hpp"
 
+#include "router/planners/disjoint_sets.hpp"
+
 #include "common/input_error.hpp"
 
 #include <algorithm>
 #include <cmath>
-#include <numeric>
 #include <utility>
 
 namespace ringroad::planners {
 
 namespace {
 
-// Union–find with union by size and path halving: near-constant time per operation.
-class DisjointSets {
-public:
-    explicit DisjointSets(std::size_t count) : parent_(count), size_(count, 1) {
-        std::iota(parent_.begin(), parent_.end(), std::size_t{0});
-    }
-    std::size_t find(std::size_t item) {
-        while (parent_[item] != item) {
-            parent_[item] = parent_[parent_[item]];
-            item = parent_[item];
-        }
-        return item;
-    }
-    bool unite(std::size_t a, std::size_t b) {
-        a = find(a);
-        b = find(b);
-        if (a == b) return false;
-        if (size_[a] < size_[b]) std::swap(a, b);
-        parent_[b] = a;
-        size_[a] += size_[b];
-        return true;
-    }
-
-private:
-    std::vector<std::size_t> parent_;
-    std::vector<std::size_t> size_;
-};
 
 // The symmetric cost of the link {a, b} under `rule`, oriented along the direction it uses.
 SpanningLink candidate_link(const CostMatrix& costs, std::size_t a, std::size_t b, LinkCostRule rule) {

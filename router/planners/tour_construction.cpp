@@ -1,30 +1,12 @@
 #include "router/planners/tour_construction.hpp"
 
+#include "router/planners/disjoint_sets.hpp"
+
 #include <algorithm>
-#include <numeric>
 #include <tuple>
 
 namespace ringroad::planners {
 namespace {
-
-class DisjointSets {
-public:
-    explicit DisjointSets(std::size_t count) : parent_(count) { std::iota(parent_.begin(), parent_.end(), 0); }
-    std::size_t find(std::size_t x) {
-        while (parent_[x] != x) x = parent_[x] = parent_[parent_[x]];
-        return x;
-    }
-    bool unite(std::size_t a, std::size_t b) {
-        a = find(a);
-        b = find(b);
-        if (a == b) return false;
-        parent_[a] = b;
-        return true;
-    }
-
-private:
-    std::vector<std::size_t> parent_;
-};
 
 // Turns fragments given by directed successor links into one cycle, starting from fragment
 // heads and always joining the current tail to the cheapest unused head.
