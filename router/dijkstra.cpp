@@ -23,7 +23,7 @@ void DijkstraWorkspace::start_query(std::uint32_t node_count) {
         query_ = 1;
     }
     std::fill(heap_.begin(), heap_.begin() + static_cast<std::ptrdiff_t>(std::min(heap_.size(), heap_size_)),
-              HeapItem{kSentinelKey, kNoNode});
+              HeapItem{kSentinelKey, kNoNode, 0});
     heap_size_ = 0;
     settled_count_ = 0;
 }
@@ -35,7 +35,7 @@ using HeapItem = DijkstraWorkspace::HeapItem;
 // 4-ary heap on a raw array (see dijkstra.hpp); the search keeps array and size in locals so
 // that label stores, which the compiler must assume may alias workspace members, do not force
 // them to be reloaded.
-inline void heap_push(HeapItem* items, std::size_t& size, PackedWeight key, NodeId node) {
+inline void heap_push(HeapItem* items, std::size_t& size, PackedWeight key, NodeId node, std::uint32_t arcs) {
     std::size_t hole = size++;
     while (hole > 0) {
         const std::size_t parent = (hole - 1) / 4;
@@ -43,14 +43,14 @@ inline void heap_push(HeapItem* items, std::size_t& size, PackedWeight key, Node
         items[hole] = items[parent];
         hole = parent;
     }
-    items[hole] = {key, node};
+    items[hole] = {key, node, arcs};
 }
 
 inline HeapItem heap_pop(HeapItem* items, std::size_t& size) {
     const HeapItem top = items[0];
     const std::size_t last_index = --size;
     const HeapItem last = items[last_index];
-    items[last_index] = {kSentinelKey, kNoNode};
+    items[last_index] = {kSentinelKey, kNoNode, 0};
     if (last_index == 0) return top;
     // Walk the hole down to a leaf along the smallest children (sentinels never win)...
     std::size_t hole = 0;
@@ -76,7 +76,7 @@ inline HeapItem heap_pop(HeapItem* items, std::size_t& size) {
 
 void DijkstraWorkspace::reserve_heap(std::size_t items) {
     // Four sentinel slots beyond the last item, always.
-    if (items + 5 > heap_.size()) heap_.resize(std::max<std::size_t>({64, 2 * heap_.size(), items + 5}), {kSentinelKey, kNoNode});
+    if (items + 5 > heap_.size()) heap_.resize(std::max<std::size_t>({64, 2 * heap_.size(), items + 5}), {kSentinelKey, kNoNode, 0});
 }
 
 std::vector<NodeId> DijkstraWorkspace::tree_path(NodeId node) const {
@@ -110,7 +110,7 @@ void run_dijkstra(const RoutingGraph& graph, Metric metric, std::span<const Weig
             label.distance = start.weight;
             label.parent = kNoNode;
             w.reserve_heap(w.heap_size_ + 1);
-            heap_push(w.heap_.data(), w.heap_size_, start.weight, start.node);
+            heap_push(w.heap_.data(), w.heap_size_, start.weight, start.node, graph.arc_range_code(start.node));
         }
     }
     const bool stop_early = !stop_when_settled.empty();
@@ -120,7 +120,7 @@ void run_dijkstra(const RoutingGraph& graph, Metric metric, std::span<const Weig
     // Each node enters the stack of final labels at most once per query (its only incoming arc
     // is relaxed once), so the stack needs no bounds checks.
     if (w.final_labels_.size() < graph.node_count()) w.final_labels_.resize(graph.node_count());
-    NodeId* const final_labels = w.final_labels_.data();
+    DijkstraWorkspace::PendingNode* const final_labels = w.final_labels_.data();
     std::size_t final_count = 0;
     HeapItem* items = w.heap_.data();
     std::size_t heap_size = w.heap_size_;
@@ -128,14 +128,18 @@ void run_dijkstra(const RoutingGraph& graph, Metric metric, std::span<const Weig
     std::uint32_t settled_count = 0;
     for (;;) {
         NodeId node;
+        std::uint32_t arc_code;
         PackedWeight base;
         if (final_count > 0) {
-            node = final_labels[--final_count];
+            --final_count;
+            node = final_labels[final_count].node;
+            arc_code = final_labels[final_count].arcs;
             base = labels[node].distance;
         } else {
             if (heap_size == 0) break;
             const HeapItem item = heap_pop(items, heap_size);
             node = item.node;
+            arc_code = item.arcs;
             base = item.key;
             // A stale copy: the node's better copy came first (or it was scanned from the stack).
             if (labels[node].stamp & kSettled) continue;
@@ -144,14 +148,19 @@ void run_dijkstra(const RoutingGraph& graph, Metric metric, std::span<const Weig
         label.stamp |= kSettled;
         ++settled_count;
         if ((label.stamp & kTarget) && --targets_left == 0 && stop_early) break;
-        const std::uint32_t end = first_arc[node + 1];
-        if (heap_size + (end - first_arc[node]) + 5 > heap_capacity) {
+        std::uint32_t begin = arc_code >> 5;
+        std::uint32_t end = begin + ((arc_code >> 1) & 15u);
+        if (((arc_code >> 1) & 15u) == RoutingGraph::kArcRangeElsewhere) {
+            begin = first_arc[node];
+            end = first_arc[node + 1];
+        }
+        if (heap_size + (end - begin) + 5 > heap_capacity) {
             w.heap_size_ = heap_size;
-            w.reserve_heap(heap_size + (end - first_arc[node]));
+            w.reserve_heap(heap_size + (end - begin));
             items = w.heap_.data();
             heap_capacity = w.heap_.size();
         }
-        for (std::uint32_t arc = first_arc[node]; arc < end; ++arc) {
+        for (std::uint32_t arc = begin; arc < end; ++arc) {
             const NodeId head = arcs[arc].head;
             const PackedWeight candidate = base + arcs[arc].weight;
             Label& next = labels[head];
@@ -165,10 +174,11 @@ void run_dijkstra(const RoutingGraph& graph, Metric metric, std::span<const Weig
             }
             // Through the head's only incoming arc, from a final label, the head's label is
             // final too: it skips the heap.
-            if (arcs[arc].only_arc_into_head) {
-                final_labels[final_count++] = head;
+            const std::uint32_t head_arcs = arcs[arc].head_arcs;
+            if (head_arcs & 1u) {
+                final_labels[final_count++] = {head, head_arcs};
             } else {
-                heap_push(items, heap_size, candidate, head);
+                heap_push(items, heap_size, candidate, head, head_arcs);
             }
         }
     }

@@ -31,9 +31,16 @@ struct WeightedNode {
 
 class DijkstraWorkspace {
 public:
+    // Each entry carries the node's arc range (RoutingGraph::arc_range_code) in what would be
+    // padding, so a pop reads the node's arcs without a lookup in first_arc().
     struct HeapItem {
         PackedWeight key;
         NodeId node;
+        std::uint32_t arcs;
+    };
+    struct PendingNode {
+        NodeId node;
+        std::uint32_t arcs;
     };
 
     explicit DijkstraWorkspace(std::uint32_t node_count = 0);
@@ -69,7 +76,7 @@ private:
     // sentinels (largest key), so every node has four children to compare without bounds checks.
     std::vector<HeapItem> heap_;
     std::size_t heap_size_ = 0;
-    std::vector<NodeId> final_labels_;   // stack: reached through their only incoming arc, final, unscanned
+    std::vector<PendingNode> final_labels_;   // stack: reached through their only incoming arc, final, unscanned
     std::uint32_t query_ = 0;
     std::uint32_t settled_count_ = 0;
 };

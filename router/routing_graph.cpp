@@ -121,7 +121,7 @@ RoutingGraph::RoutingGraph(const graph::RoadGraph& road_graph, RestrictionPolicy
         for (std::size_t arc = 0; arc < arc_head_.size(); ++arc) {
             const NodeId head = arc_head_[arc];
             const bool only_arc = first_reverse_arc_[head + 1] - first_reverse_arc_[head] == 1;
-            per_arc[arc] = {head, only_arc ? 1u : 0u, weights[head]};
+            per_arc[arc] = {head, arc_range_code(head) | (only_arc ? 1u : 0u), weights[head]};
         }
     }
 

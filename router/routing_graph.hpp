@@ -62,14 +62,28 @@ public:
     }
 
     // Per arc, what a search needs in one 16-byte record: the head, the head's weight
-    // (search_arcs(metric)[a].weight == node_weight(metric, arc_heads()[a])), and whether this
-    // arc is the head's only incoming arc. A search reads them in step, with no random access
-    // but the head's label.
+    // (search_arcs(metric)[a].weight == node_weight(metric, arc_heads()[a])), whether this arc is
+    // the head's only incoming arc, and where the head's own arcs lie. A search reads them in
+    // step and carries the head's arc range along with the head (in its heap entry), so that
+    // scanning a node later needs no lookup in first_arc(): with the label, that lookup was the
+    // second dependent cache miss of every scan.
     struct SearchArc {
         NodeId head;
-        std::uint32_t only_arc_into_head;   // 1 when the head has exactly one predecessor
+        std::uint32_t head_arcs;   // HeadArcs code, see below
         PackedWeight weight;
     };
+    // The 32-bit code in SearchArc::head_arcs: bit 0 is 1 when the arc is the head's only
+    // incoming arc; bits 1-4 hold the head's arc count and bits 5-31 its first arc, unless the
+    // count field is kArcRangeElsewhere (count >= 15 or first arc >= 2^27), in which case the
+    // range must be read from first_arc().
+    static constexpr std::uint32_t kArcRangeElsewhere = 15;
+    static constexpr std::uint32_t arc_range_code(std::uint32_t first, std::uint32_t count) noexcept {
+        return first < (1u << 27) && count < kArcRangeElsewhere ? first << 5 | count << 1
+                                                                 : kArcRangeElsewhere << 1;
+    }
+    std::uint32_t arc_range_code(NodeId node) const noexcept {
+        return arc_range_code(first_arc_[node], first_arc_[node + 1] - first_arc_[node]);
+    }
     std::span<const SearchArc> search_arcs(Metric metric) const noexcept {
         return search_arcs_[static_cast<int>(metric)];
     }
