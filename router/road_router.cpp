@@ -122,6 +122,24 @@ void parallel_rows(std::size_t count, unsigned threads, Body body) {
     for (std::thread& thread : pool) thread.join();
 }
 
+// What a Dijkstra search towards several stops needs: each stop's arrival nodes, and the set of
+// all of them (sorted, unique) that must be settled before the search may stop early.
+struct ArrivalTargets {
+    std::vector<std::vector<WeightedNode>> ends;
+    std::vector<NodeId> stop_set;
+};
+
+ArrivalTargets arrival_targets(const std::vector<StopEndpoints>& stops, Metric metric) {
+    ArrivalTargets targets;
+    for (const StopEndpoints& endpoints : stops) {
+        targets.ends.push_back(arrival_nodes(endpoints, metric));
+        for (const WeightedNode& end : targets.ends.back()) targets.stop_set.push_back(end.node);
+    }
+    std::sort(targets.stop_set.begin(), targets.stop_set.end());
+    targets.stop_set.erase(std::unique(targets.stop_set.begin(), targets.stop_set.end()), targets.stop_set.end());
+    return targets;
+}
+
 } // namespace
 
 struct RoadRouter::State {
@@ -214,14 +232,9 @@ std::vector<PackedWeight> RoadRouter::matrix(const std::vector<SnappedStop>& sou
         result = hierarchy_many_to_many(state.hierarchy(metric), starts, ends, options_.threads);
     } else {
         result = make_weight_buffer(sources.size() * targets.size(), kUnreachableWeight);
-        std::vector<std::vector<WeightedNode>> ends;
-        std::vector<NodeId> stop_set;
-        for (const StopEndpoints& endpoints : to) {
-            ends.push_back(arrival_nodes(endpoints, metric));
-            for (const WeightedNode& end : ends.back()) stop_set.push_back(end.node);
-        }
-        std::sort(stop_set.begin(), stop_set.end());
-        stop_set.erase(std::unique(stop_set.begin(), stop_set.end()), stop_set.end());
+        const ArrivalTargets arrivals = arrival_targets(to, metric);
+        const auto& ends = arrivals.ends;
+        const auto& stop_set = arrivals.stop_set;
         parallel_rows(sources.size(), options_.threads, [&](std::atomic<std::size_t>& next) {
             DijkstraWorkspace workspace(state.routing_graph.node_count());
             for (std::size_t source = next++; source < sources.size(); source = next++) {
@@ -300,14 +313,9 @@ std::vector<PathResult> RoadRouter::routes_from(const SnappedStop& from_stop, co
     State& state = *state_;
     const StopEndpoints from = stop_endpoints(state.road_graph, state.routing_graph, from_stop);
     const std::vector<StopEndpoints> to = state.endpoints(targets);
-    std::vector<std::vector<WeightedNode>> ends;
-    std::vector<NodeId> stop_set;
-    for (const StopEndpoints& endpoints : to) {
-        ends.push_back(arrival_nodes(endpoints, metric));
-        for (const WeightedNode& end : ends.back()) stop_set.push_back(end.node);
-    }
-    std::sort(stop_set.begin(), stop_set.end());
-    stop_set.erase(std::unique(stop_set.begin(), stop_set.end()), stop_set.end());
+    const ArrivalTargets arrivals = arrival_targets(to, metric);
+    const auto& ends = arrivals.ends;
+    const auto& stop_set = arrivals.stop_set;
     DijkstraWorkspace workspace(state.routing_graph.node_count());
     run_dijkstra(state.routing_graph, metric, departure_nodes(from, metric), stop_set, workspace);
 
