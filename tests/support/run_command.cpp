@@ -5,14 +5,40 @@
 #include <unistd.h>
 
 #include <atomic>
+#include <cstdlib>
 #include <filesystem>
 #include <fstream>
+#include <mutex>
 #include <sstream>
 #include <stdexcept>
 
 namespace ringroad::test {
 
 namespace {
+
+// Every scratch folder handed out, removed when the test program exits so that repeated runs do
+// not pile up folders in /tmp. Set RINGROAD_KEEP_SCRATCH=1 to keep them for a post-mortem.
+class ScratchFolders {
+public:
+    ~ScratchFolders() {
+        if (std::getenv("RINGROAD_KEEP_SCRATCH") != nullptr) return;
+        std::error_code ignored;
+        for (const auto& folder : folders_) std::filesystem::remove_all(folder, ignored);
+    }
+    void remember(const std::filesystem::path& folder) {
+        const std::lock_guard lock(mutex_);
+        folders_.push_back(folder);
+    }
+
+private:
+    std::mutex mutex_;
+    std::vector<std::filesystem::path> folders_;
+};
+
+ScratchFolders& scratch_folders() {
+    static ScratchFolders folders;
+    return folders;
+}
 
 std::string slurp(const std::string& path) {
     std::ifstream in(path, std::ios::binary);
@@ -68,6 +94,7 @@ std::string make_scratch_dir(const std::string& label) {
                        std::to_string(counter++));
     std::filesystem::remove_all(path);
     std::filesystem::create_directories(path);
+    scratch_folders().remember(path);
     return path.string();
 }
 
