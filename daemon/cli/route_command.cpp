@@ -79,18 +79,18 @@ std::vector<RoadStretch> roads_taken(const graph::RoadGraph& graph, const router
     return roads;
 }
 
-nlohmann::json roads_json(const std::vector<RoadStretch>& roads) {
-    nlohmann::json list = nlohmann::json::array();
+nlohmann::ordered_json roads_json(const std::vector<RoadStretch>& roads) {
+    nlohmann::ordered_json list = nlohmann::ordered_json::array();
     for (const RoadStretch& road : roads) {
-        list.push_back({{"name", road.name ? nlohmann::json(*road.name) : nlohmann::json(nullptr)},
+        list.push_back({{"name", road.name ? nlohmann::ordered_json(*road.name) : nlohmann::ordered_json(nullptr)},
                         {"seconds", road.time_ds / 10.0},
                         {"meters", road.length_dm / 10.0}});
     }
     return list;
 }
 
-nlohmann::json line_string(const router::RoutePath& path) {
-    nlohmann::json coordinates = nlohmann::json::array();
+nlohmann::ordered_json line_string(const router::RoutePath& path) {
+    nlohmann::ordered_json coordinates = nlohmann::ordered_json::array();
     for (const graph::Coordinate& point : path.geometry) {
         coordinates.push_back({degrees(point.lon_e7), degrees(point.lat_e7)});
     }
@@ -99,7 +99,7 @@ nlohmann::json line_string(const router::RoutePath& path) {
     return {{"type", "LineString"}, {"coordinates", coordinates}};
 }
 
-nlohmann::json stop_json(const router::SnappedStop& stop) {
+nlohmann::ordered_json stop_json(const router::SnappedStop& stop) {
     return {{"lat", degrees(stop.requested.lat_e7)},    {"lon", degrees(stop.requested.lon_e7)},
             {"road_lat", degrees(stop.on_road.lat_e7)}, {"road_lon", degrees(stop.on_road.lon_e7)},
             {"snap_meters", one_decimal(stop.snap_distance_meters)}};
@@ -139,16 +139,18 @@ void run_route(const RouteArguments& arguments) {
     if (arguments.format == "gpx") {
         content = gpx_track(*path);
     } else if (arguments.format == "geojson") {
-        const nlohmann::json properties{{"seconds", path->seconds()}, {"meters", path->meters()},
-                                        {"metric", arguments.metric}, {"roads", roads_json(roads)},
-                                        {"caution", kSafetyNotice}};
-        const nlohmann::json feature{{"type", "Feature"}, {"geometry", line_string(*path)}, {"properties", properties}};
-        content = nlohmann::json{{"type", "FeatureCollection"}, {"features", {feature}}}.dump(kJsonIndent) + "\n";
+        const nlohmann::ordered_json properties{{"seconds", path->seconds()}, {"meters", path->meters()},
+                                                {"metric", arguments.metric}, {"roads", roads_json(roads)},
+                                                {"caution", kSafetyNotice}};
+        const nlohmann::ordered_json feature{
+            {"type", "Feature"}, {"geometry", line_string(*path)}, {"properties", properties}};
+        content = nlohmann::ordered_json{{"type", "FeatureCollection"}, {"features", {feature}}}.dump(kJsonIndent) + "\n";
     } else {
-        const nlohmann::json report{{"seconds", path->seconds()},  {"meters", path->meters()},
-                                    {"metric", arguments.metric},  {"from", stop_json(start)},
-                                    {"to", stop_json(end)},        {"roads", roads_json(roads)},
-                                    {"geometry", line_string(*path)}, {"caution", kSafetyNotice}};
+        // Insertion order: the answer first, then where it starts and ends, then the detail.
+        const nlohmann::ordered_json report{{"seconds", path->seconds()},     {"meters", path->meters()},
+                                            {"metric", arguments.metric},     {"from", stop_json(start)},
+                                            {"to", stop_json(end)},           {"roads", roads_json(roads)},
+                                            {"geometry", line_string(*path)}, {"caution", kSafetyNotice}};
         content = report.dump(kJsonIndent) + "\n";
     }
     emit_output(arguments.output, content);
