@@ -13,5 +13,6 @@ void add_matrix_command(CLI::App& app);
 void add_route_command(CLI::App& app);
 void add_tour_command(CLI::App& app);
 void add_network_command(CLI::App& app);
+void add_synth_command(CLI::App& app);
 
 } // namespace ringroad::cli
