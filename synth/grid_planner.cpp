@@ -454,11 +454,19 @@ private:
         const bool left_is_after = (from_line == kRows) == increasing;
         const std::uint32_t left_way = left_is_after ? ways.after[cross_line] : ways.before[cross_line];
         const std::uint32_t right_way = left_is_after ? ways.before[cross_line] : ways.after[cross_line];
-        RestrictionValue value = RestrictionValue::no_left_turn;
-        std::uint32_t to_way = left_way;
+        // A turn onto a one-way carriageway against its direction needs no sign: ban only real turns.
+        const std::int8_t cross_oneway = cross_line == kRows ? lines(kRows)[row].oneway : lines(kColumns)[column].oneway;
+        const bool left_open = left_is_after ? cross_oneway >= 0 : cross_oneway <= 0;
+        const bool right_open = left_is_after ? cross_oneway <= 0 : cross_oneway >= 0;
+        RestrictionValue value = RestrictionValue::only_straight_on;
+        std::uint32_t to_way = straight_way;
         switch ((hash >> 1) % 4) {
-        case 1: value = RestrictionValue::no_right_turn; to_way = right_way; break;
-        case 2: value = RestrictionValue::only_straight_on; to_way = straight_way; break;
+        case 0:
+            if (left_open) { value = RestrictionValue::no_left_turn; to_way = left_way; }
+            break;
+        case 1:
+            if (right_open) { value = RestrictionValue::no_right_turn; to_way = right_way; }
+            break;
         case 3:
             if (oneway == 0) { value = RestrictionValue::no_u_turn; to_way = from_way; }
             break;

@@ -48,12 +48,13 @@ void print_summary(const synth::RegionPlan& plan, const SynthArguments& argument
     const synth::PlanFigures& figures = plan.figures;
     std::fprintf(stderr,
                  "Wrote %s (seed %llu): %llu junctions planned for the car profile on a %u x %u street grid; "
-                 "%zu nodes, %zu ways, %zu turn restrictions, %u motorways with %u interchanges, %u roundabouts; "
+                 "%zu nodes, %zu ways, %zu turn restrictions, %u motorways with %u interchanges, %u roundabouts, "
+                 "%u cul-de-sacs and driveways; "
                  "%.1f MiB; %.1f x %.1f km, lat %.4f .. %.4f, lon %.4f .. %.4f; %.1f s.\n",
                  arguments.output.c_str(), static_cast<unsigned long long>(arguments.seed),
                  static_cast<unsigned long long>(figures.junctions), figures.grid_rows, figures.grid_columns,
                  plan.nodes.size(), plan.ways.size(), plan.restrictions.size(), figures.motorways, figures.interchanges,
-                 figures.roundabouts, static_cast<double>(bytes) / (1024.0 * 1024.0), figures.width_m / 1000.0,
+                 figures.roundabouts, figures.cul_de_sacs, static_cast<double>(bytes) / (1024.0 * 1024.0), figures.width_m / 1000.0,
                  figures.height_m / 1000.0, figures.min_lat, figures.max_lat, figures.min_lon, figures.max_lon, seconds);
 }
 
