@@ -66,7 +66,7 @@ struct PerSourceTimes {
     bool same_distances = true;
 };
 
-PerSourceTimes time_one_to_all(const RoutingGraph& routing_graph, const std::vector<NodeId>& sources) {
+PerSourceTimes time_one_to_all(const RoutingGraph& routing_graph, const std::vector<NodeId>& sources, int rounds = 3) {
     const std::uint32_t n = routing_graph.node_count();
     BglListGraph list_graph(n);
     std::vector<std::pair<std::uint32_t, std::uint32_t>> arcs;
@@ -90,7 +90,7 @@ PerSourceTimes time_one_to_all(const RoutingGraph& routing_graph, const std::vec
     std::vector<std::uint64_t> reference(n);
 
     PerSourceTimes best;
-    for (int round = 0; round < 3; ++round) {
+    for (int round = 0; round < rounds; ++round) {
         double cpu_start = process_cpu_milliseconds();
         for (NodeId source : sources) {
             boost::dijkstra_shortest_paths(
@@ -264,16 +264,55 @@ void run_suite(const graph::RoadGraph& road_graph, std::size_t dijkstra_sample_r
 
 } // namespace
 
+// --only one-to-all: the per-source comparison alone (BGL list, BGL CSR, ours), `rounds`
+// interleaved rounds over `source_count` sources (fewer on large graphs unless given), so the
+// Dijkstra can be measured quickly at every scale.
+void run_one_to_all_only(const graph::RoadGraph& road_graph, std::size_t source_count, int rounds) {
+    auto start = std::chrono::steady_clock::now();
+    RoadRouter router(road_graph);
+    const RoutingGraph& routing_graph = router.routing_graph();
+    std::printf("%u junctions, %u routing nodes, %u turn arcs (routing graph + snap index: %.0f ms)\n",
+                road_graph.vertex_count(), routing_graph.node_count(), routing_graph.arc_count(), milliseconds_since(start));
+    std::vector<NodeId> sources = departure_nodes_of(router, random_stops(router, 100, 100));
+    sources.resize(std::min(sources.size(), source_count));
+    const PerSourceTimes times = time_one_to_all(routing_graph, sources, rounds);
+    const double bgl_ms = std::min(times.bgl_list_ms, times.bgl_csr_ms);
+    std::printf("| one source to all, 1 thread, best of %d interleaved rounds over %zu sources | CPU ms | ours faster by |\n"
+                "|---|---:|---:|\n", rounds, sources.size());
+    std::printf("| BGL dijkstra_shortest_paths, adjacency_list | %.3f | %.2fx |\n", times.bgl_list_ms, times.bgl_list_ms / times.ours_ms);
+    std::printf("| BGL dijkstra_shortest_paths, compressed_sparse_row_graph | %.3f | %.2fx |\n", times.bgl_csr_ms,
+                times.bgl_csr_ms / times.ours_ms);
+    std::printf("| our Dijkstra | %.3f | (%.2fx the faster BGL) |\n", times.ours_ms, bgl_ms / times.ours_ms);
+    if (!times.same_distances) std::printf("| MISMATCH: our distances differ from BGL's | | |\n");
+    std::printf("peak memory so far: %.0f MiB\n\n", bench::peak_memory_mib());
+}
+
 // Usage: router_bench [EXTRACT.osm.pbf] [--grid ROWS]...   (default: Andorra, then a 200 x 200
 // random grid, the largest that keeps the whole run near 20 s on 2 cores; --grid 0 skips the
-// grids; grids from 150 rows on time the 1000 x 1000 Dijkstra matrix on 100 rows and scale it)
+// grids; grids from 150 rows on time the 1000 x 1000 Dijkstra matrix on 100 rows and scale it).
+// [--only one-to-all] runs only the per-source BGL comparison on each graph; [--sources N] and
+// [--rounds R] set its sources per round and interleaved rounds.
 int main(int argc, char** argv) {
     std::string path = std::string(RINGROAD_FIXTURES_DIR) + "/osm/andorra.osm.pbf";
     std::vector<std::uint32_t> grid_sizes;
     bool grids_given = false;
+    bool one_to_all_only = false;
+    std::size_t source_count = 0;   // 0: 100 sources, 20 on graphs above 100 000 nodes, 5 above 1 000 000
+    int rounds = 3;
     for (int i = 1; i < argc; ++i) {
         const std::string argument = argv[i];
-        if (argument == "--grid" && i + 1 < argc) {
+        if (argument == "--only" && i + 1 < argc) {
+            const std::string what = argv[++i];
+            if (what != "one-to-all") {
+                std::fprintf(stderr, "router_bench: --only takes one-to-all, not '%s'\n", what.c_str());
+                return 2;
+            }
+            one_to_all_only = true;
+        } else if (argument == "--sources" && i + 1 < argc) {
+            source_count = std::stoul(argv[++i]);
+        } else if (argument == "--rounds" && i + 1 < argc) {
+            rounds = std::max(1, std::stoi(argv[++i]));
+        } else if (argument == "--grid" && i + 1 < argc) {
             grids_given = true;
             const auto rows = static_cast<std::uint32_t>(std::stoul(argv[++i]));
             if (rows > 0) grid_sizes.push_back(rows);
@@ -287,7 +326,15 @@ int main(int argc, char** argv) {
     options.input_path = path;
     const graph::RoadGraph extract_graph = extract::extract_and_build_road_graph(options, nullptr);
     std::printf("## %s (extracted in %.0f ms)\n", path.c_str(), milliseconds_since(start));
-    run_suite(extract_graph, 0);
+    const auto sources_for = [&](std::uint64_t nodes) -> std::size_t {
+        if (source_count > 0) return source_count;
+        return nodes > 1000000 ? 5 : nodes > 100000 ? 20 : 100;
+    };
+    if (one_to_all_only) {
+        run_one_to_all_only(extract_graph, sources_for(extract_graph.edge_count()), rounds);
+    } else {
+        run_suite(extract_graph, 0);
+    }
 
     for (std::uint32_t grid_rows : grid_sizes) {
         // The synthetic region generator of the demo issue has not landed; a random street grid
@@ -301,7 +348,11 @@ int main(int argc, char** argv) {
         start = std::chrono::steady_clock::now();
         const graph::RoadGraph grid_graph = test::random_grid_graph(grid);
         std::printf("## random street grid %u x %u (generated in %.0f ms)\n", grid_rows, grid_rows, milliseconds_since(start));
-        run_suite(grid_graph, grid_rows >= 150 ? 100 : 0);
+        if (one_to_all_only) {
+            run_one_to_all_only(grid_graph, sources_for(grid_graph.edge_count()), rounds);
+        } else {
+            run_suite(grid_graph, grid_rows >= 150 ? 100 : 0);
+        }
     }
     return 0;
 }

@@ -1,6 +1,7 @@
 #include "router/dijkstra.hpp"
 
 #include <algorithm>
+#include <bit>
 
 namespace ringroad::router {
 
@@ -25,6 +26,7 @@ void DijkstraWorkspace::start_query(std::uint32_t node_count) {
     std::fill(heap_.begin(), heap_.begin() + static_cast<std::ptrdiff_t>(std::min(heap_.size(), heap_size_)),
               HeapItem{kSentinelKey, kNoNode, 0});
     heap_size_ = 0;
+    for (std::vector<HeapItem>& bucket : buckets_) bucket.clear();
     settled_count_ = 0;
 }
 
@@ -103,17 +105,50 @@ void run_dijkstra(const RoutingGraph& graph, Metric metric, std::span<const Weig
             ++targets_left;
         }
     }
+    const bool stop_early = !stop_when_settled.empty();
+
+    // The queue (see dijkstra.hpp): keys in the current block live in the heap, later ones in
+    // the bucket numbered by the highest block-number bit in which they differ from the current
+    // block (bucket i holds blocks greater than the current one, and all of bucket i's blocks
+    // are smaller than those of bucket i + 1).
+    const unsigned block_shift = graph.search_block_shift(metric);
+    std::vector<HeapItem>* const buckets = w.buckets_;
+    std::uint64_t filled_buckets = 0;   // bit i: bucket i is not empty
+    PackedWeight current_block = kUnreachableWeight;
+    for (const WeightedNode& start : starts) current_block = std::min(current_block, start.weight >> block_shift);
+
+    HeapItem* items = w.heap_.data();
+    std::size_t heap_size = w.heap_size_;
+    std::size_t heap_capacity = w.heap_.size();   // including the four sentinel slots
+    const auto ensure_heap_room = [&](std::size_t more) {
+        if (heap_size + more + 5 > heap_capacity) {
+            w.heap_size_ = heap_size;
+            w.reserve_heap(heap_size + more);
+            items = w.heap_.data();
+            heap_capacity = w.heap_.size();
+        }
+    };
+    const auto enqueue = [&](PackedWeight key, NodeId node, std::uint32_t arcs) {
+        const PackedWeight block = key >> block_shift;
+        if (block == current_block) {
+            heap_push(items, heap_size, key, node, arcs);
+        } else {
+            const int bucket = std::bit_width(block ^ current_block);
+            buckets[bucket].push_back({key, node, arcs});
+            filled_buckets |= std::uint64_t{1} << bucket;
+        }
+    };
+
     for (const WeightedNode& start : starts) {
         Label& label = labels[start.node];
         if ((label.stamp & ~3u) != fresh) label = {kUnreachableWeight, kNoNode, fresh};
         if (start.weight < label.distance) {
             label.distance = start.weight;
             label.parent = kNoNode;
-            w.reserve_heap(w.heap_size_ + 1);
-            heap_push(w.heap_.data(), w.heap_size_, start.weight, start.node, graph.arc_range_code(start.node));
+            ensure_heap_room(1);
+            enqueue(start.weight, start.node, graph.arc_range_code(start.node));
         }
     }
-    const bool stop_early = !stop_when_settled.empty();
 
     const std::uint32_t* const first_arc = graph.first_arc().data();
     const RoutingGraph::SearchArc* const arcs = graph.search_arcs(metric).data();
@@ -122,9 +157,6 @@ void run_dijkstra(const RoutingGraph& graph, Metric metric, std::span<const Weig
     if (w.final_labels_.size() < graph.node_count()) w.final_labels_.resize(graph.node_count());
     DijkstraWorkspace::PendingNode* const final_labels = w.final_labels_.data();
     std::size_t final_count = 0;
-    HeapItem* items = w.heap_.data();
-    std::size_t heap_size = w.heap_size_;
-    std::size_t heap_capacity = w.heap_.size();   // including the four sentinel slots
     std::uint32_t settled_count = 0;
     for (;;) {
         NodeId node;
@@ -136,13 +168,35 @@ void run_dijkstra(const RoutingGraph& graph, Metric metric, std::span<const Weig
             arc_code = final_labels[final_count].arcs;
             base = labels[node].distance;
         } else {
-            if (heap_size == 0) break;
+            if (heap_size == 0) {
+                // The current block is done: the first non-empty bucket holds the next block;
+                // its smallest key's block becomes current and its items move down.
+                if (filled_buckets == 0) break;
+                const int bucket = std::countr_zero(filled_buckets);
+                filled_buckets &= filled_buckets - 1;
+                std::vector<HeapItem>& moving = buckets[bucket];
+                PackedWeight smallest = kUnreachableWeight;
+                for (const HeapItem& item : moving) smallest = std::min(smallest, item.key);
+                current_block = smallest >> block_shift;
+                ensure_heap_room(moving.size());
+                for (const HeapItem& item : moving) enqueue(item.key, item.node, item.arcs);
+                moving.clear();
+                continue;
+            }
             const HeapItem item = heap_pop(items, heap_size);
             node = item.node;
             arc_code = item.arcs;
             base = item.key;
             // A stale copy: the node's better copy came first (or it was scanned from the stack).
             if (labels[node].stamp & kSettled) continue;
+        }
+        // While this node is scanned, fetch the first successor label of the node likely to be
+        // scanned next (its arcs were prefetched when it was queued; a range held elsewhere
+        // prefetches a wrong line, harmlessly).
+        if (final_count > 0) {
+            __builtin_prefetch(labels + arcs[final_labels[final_count - 1].arcs >> 5].head);
+        } else if (heap_size > 0) {
+            __builtin_prefetch(labels + arcs[items[0].arcs >> 5].head);
         }
         Label& label = labels[node];
         label.stamp |= kSettled;
@@ -154,12 +208,7 @@ void run_dijkstra(const RoutingGraph& graph, Metric metric, std::span<const Weig
             begin = first_arc[node];
             end = first_arc[node + 1];
         }
-        if (heap_size + (end - begin) + 5 > heap_capacity) {
-            w.heap_size_ = heap_size;
-            w.reserve_heap(heap_size + (end - begin));
-            items = w.heap_.data();
-            heap_capacity = w.heap_.size();
-        }
+        ensure_heap_room(end - begin);
         for (std::uint32_t arc = begin; arc < end; ++arc) {
             const NodeId head = arcs[arc].head;
             const PackedWeight candidate = base + arcs[arc].weight;
@@ -173,7 +222,7 @@ void run_dijkstra(const RoutingGraph& graph, Metric metric, std::span<const Weig
                 continue;
             }
             // Through the head's only incoming arc, from a final label, the head's label is
-            // final too: it skips the heap.
+            // final too: it skips the queue.
             const std::uint32_t head_arcs = arcs[arc].head_arcs;
             // The head will be scanned later: start fetching its arcs now (a range held
             // elsewhere prefetches arc 0, harmlessly).
@@ -181,7 +230,7 @@ void run_dijkstra(const RoutingGraph& graph, Metric metric, std::span<const Weig
             if (head_arcs & 1u) {
                 final_labels[final_count++] = {head, head_arcs};
             } else {
-                heap_push(items, heap_size, candidate, head, head_arcs);
+                enqueue(candidate, head, head_arcs);
             }
         }
     }

@@ -9,6 +9,13 @@
 // loop's branches are predictable, which matters more than comparisons for a small frontier.
 // Measured 1.4x faster than the radix heap it replaced, whose 64-bit packed keys (time high,
 // length low) made it redistribute a bucket on nearly every pop.
+// The heap holds only keys of the current block (keys sharing key >> shift, a block about 16
+// median node weights wide, RoutingGraph::search_block_shift); later keys wait unsorted in
+// radix buckets by the highest block-number bit that differs from the current block, and move
+// down when the heap runs empty (a radix heap over blocks, exact order inside a block). On
+// road graphs most pushes land in the current block; very long edges (ferries, or a generator's
+// far-away bends) no longer make the heap deep: 850 000 heap items and ~40% of the time in heap
+// pops on the 1000 x 1000 random grid before.
 // A node with a single incoming arc (41% of Andorra's edge-based routing graph: roads leaving a
 // vertex where only two roads meet, turn-arounds at dead ends) bypasses the heap: once its
 // predecessor is scanned with a final label, its own label is final, so it is scanned next from
@@ -76,6 +83,7 @@ private:
     // sentinels (largest key), so every node has four children to compare without bounds checks.
     std::vector<HeapItem> heap_;
     std::size_t heap_size_ = 0;
+    std::vector<HeapItem> buckets_[65];          // later blocks, see run_dijkstra
     std::vector<PendingNode> final_labels_;   // stack: reached through their only incoming arc, final, unscanned
     std::uint32_t query_ = 0;
     std::uint32_t settled_count_ = 0;

@@ -88,6 +88,12 @@ public:
         return search_arcs_[static_cast<int>(metric)];
     }
 
+    // Dijkstra's queue orders keys exactly only within blocks of 2^shift packed-weight units
+    // (keys sharing key >> shift) and orders blocks by radix buckets: a block spans about one
+    // to two typical node weights of the primary quantity, so most pushes land in the current
+    // or the next block.
+    unsigned search_block_shift(Metric metric) const noexcept { return search_block_shift_[static_cast<int>(metric)]; }
+
     std::span<const std::uint32_t> first_arc() const noexcept { return first_arc_; }
     std::span<const NodeId> arc_heads() const noexcept { return arc_head_; }
 
@@ -104,6 +110,7 @@ private:
     std::vector<std::uint32_t> node_length_dm_;
     std::vector<PackedWeight> node_weights_[2];
     std::vector<SearchArc> search_arcs_[2];
+    unsigned search_block_shift_[2] = {32, 32};
     bool honours_restrictions_ = false;
     std::uint64_t fingerprint_ = 0;
 };

@@ -153,3 +153,43 @@ TEST_CASE("Dijkstra: starts on nodes with a single incoming arc are still improv
         REQUIRE(workspace.distance(node) == (expected[node] == inf ? kUnreachableWeight : expected[node]));
     }
 }
+
+TEST_CASE("Dijkstra's block queue: weights spanning many blocks and far start offsets, exactly as BGL", "[dijkstra]") {
+    // Roads from walking pace to motorway speed, a few of them hundreds of times slower than the
+    // median, put queue keys in many blocks and buckets at once; start offsets far beyond the
+    // graph's own distances start the queue in a late block. Reference: BGL from each start.
+    std::mt19937_64 random(31);
+    test::GraphBuilder builder;
+    const std::uint32_t side = 18;
+    for (std::uint32_t row = 0; row < side; ++row) {
+        for (std::uint32_t column = 0; column < side; ++column) builder.add_vertex(17.5 + row * 0.001, -141.5 + column * 0.001);
+    }
+    const double speeds[] = {0.2, 5.0, 30.0, 50.0, 50.0, 50.0, 90.0, 130.0};
+    for (std::uint32_t row = 0; row < side; ++row) {
+        for (std::uint32_t column = 0; column < side; ++column) {
+            const graph::VertexId here = row * side + column;
+            if (column + 1 < side) builder.add_road(here, here + 1, speeds[random() % 8], true, random() % 4 != 0);
+            if (row + 1 < side) builder.add_road(here, here + side, speeds[random() % 8], random() % 4 != 0, true);
+        }
+    }
+    builder.data().metadata.push_back({"profile", "car"});
+    const graph::RoadGraph road_graph = builder.build();
+    const RoutingGraph routing_graph(road_graph, RestrictionPolicy::honour);
+    for (Metric metric : {Metric::time, Metric::distance}) {
+        check_against_bgl(routing_graph, metric, 10, 77);
+        const test::BglGraph reference = test::to_bgl(routing_graph, metric);
+        const NodeId a = 3, b = routing_graph.node_count() / 2;
+        const WeightedNode starts[] = {{a, pack_weight(metric, 5'000'000, 7)}, {b, pack_weight(metric, 5'000'900, 0)}};
+        DijkstraWorkspace workspace(routing_graph.node_count());
+        run_dijkstra(routing_graph, metric, starts, {}, workspace);
+        const auto from_a = test::bgl_distances(reference, a);
+        const auto from_b = test::bgl_distances(reference, b);
+        const std::uint64_t inf = std::numeric_limits<std::uint64_t>::max();
+        for (NodeId node = 0; node < routing_graph.node_count(); ++node) {
+            const std::uint64_t via_a = from_a[node] == inf ? inf : from_a[node] + starts[0].weight;
+            const std::uint64_t via_b = from_b[node] == inf ? inf : from_b[node] + starts[1].weight;
+            const std::uint64_t expected = std::min(via_a, via_b);
+            REQUIRE(workspace.distance(node) == (expected == inf ? kUnreachableWeight : expected));
+        }
+    }
+}
