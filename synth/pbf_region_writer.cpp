@@ -96,6 +96,7 @@ public:
         if (progress != nullptr) progress->phase("writing turn restrictions");
         for (std::size_t relation = 0; relation < plan_.restrictions.size(); ++relation) add_relation(relation);
         flush();
+        if (progress != nullptr) progress->phase("compressing and syncing the file");
         writer_.close();
         if (progress != nullptr) progress->update(1.0);
     }
