@@ -37,7 +37,7 @@ using HeapItem = DijkstraWorkspace::HeapItem;
 // 4-ary heap on a raw array (see dijkstra.hpp); the search keeps array and size in locals so
 // that label stores, which the compiler must assume may alias workspace members, do not force
 // them to be reloaded.
-inline void heap_push(HeapItem* items, std::size_t& size, PackedWeight key, NodeId node, std::uint32_t arcs) {
+inline void heap_push(HeapItem* items, std::size_t& size, PackedWeight key, NodeId node, std::uint32_t successors) {
     std::size_t hole = size++;
     while (hole > 0) {
         const std::size_t parent = (hole - 1) / 4;
@@ -45,7 +45,7 @@ inline void heap_push(HeapItem* items, std::size_t& size, PackedWeight key, Node
         items[hole] = items[parent];
         hole = parent;
     }
-    items[hole] = {key, node, arcs};
+    items[hole] = {key, node, successors};
 }
 
 inline HeapItem heap_pop(HeapItem* items, std::size_t& size) {
@@ -128,13 +128,13 @@ void run_dijkstra(const RoutingGraph& graph, Metric metric, std::span<const Weig
             heap_capacity = w.heap_.size();
         }
     };
-    const auto enqueue = [&](PackedWeight key, NodeId node, std::uint32_t arcs) {
+    const auto enqueue = [&](PackedWeight key, NodeId node, std::uint32_t successors) {
         const PackedWeight block = key >> block_shift;
         if (block == current_block) {
-            heap_push(items, heap_size, key, node, arcs);
+            heap_push(items, heap_size, key, node, successors);
         } else {
             const int bucket = std::bit_width(block ^ current_block);
-            buckets[bucket].push_back({key, node, arcs});
+            buckets[bucket].push_back({key, node, successors});
             filled_buckets |= std::uint64_t{1} << bucket;
         }
     };
@@ -146,26 +146,52 @@ void run_dijkstra(const RoutingGraph& graph, Metric metric, std::span<const Weig
             label.distance = start.weight;
             label.parent = kNoNode;
             ensure_heap_room(1);
-            enqueue(start.weight, start.node, graph.arc_range_code(start.node));
+            enqueue(start.weight, start.node, graph.search_nodes(metric)[start.node].successors);
         }
     }
 
     const std::uint32_t* const first_arc = graph.first_arc().data();
-    const RoutingGraph::SearchArc* const arcs = graph.search_arcs(metric).data();
+    const NodeId* const arc_heads = graph.arc_heads().data();
+    const RoutingGraph::SearchNode* const search_nodes = graph.search_nodes(metric).data();
     // Each node enters the stack of final labels at most once per query (its only incoming arc
     // is relaxed once), so the stack needs no bounds checks.
     if (w.final_labels_.size() < graph.node_count()) w.final_labels_.resize(graph.node_count());
     DijkstraWorkspace::PendingNode* const final_labels = w.final_labels_.data();
     std::size_t final_count = 0;
     std::uint32_t settled_count = 0;
+    NodeId node = kNoNode;
+    PackedWeight base = 0;
+    const auto relax = [&](NodeId head) {
+        const RoutingGraph::SearchNode& reached = search_nodes[head];
+        const PackedWeight candidate = base + reached.weight;
+        Label& next = labels[head];
+        if ((next.stamp & ~3u) != fresh) {
+            next = {candidate, node, fresh};
+        } else if (candidate < next.distance) {
+            next.distance = candidate;
+            next.parent = node;
+        } else {
+            return;
+        }
+        const std::uint32_t successors = reached.successors;
+        // The head will be scanned later: start fetching its successors' records and labels
+        // now (a list or a range held elsewhere prefetches a wrong line, harmlessly).
+        __builtin_prefetch(search_nodes + (successors >> 9));
+        __builtin_prefetch(labels + (successors >> 9));
+        // Through the head's only incoming arc, from a final label, the head's label is
+        // final too: it skips the queue.
+        if (successors & 1u) {
+            final_labels[final_count++] = {head, successors};
+        } else {
+            enqueue(candidate, head, successors);
+        }
+    };
     for (;;) {
-        NodeId node;
-        std::uint32_t arc_code;
-        PackedWeight base;
+        std::uint32_t successors;
         if (final_count > 0) {
             --final_count;
             node = final_labels[final_count].node;
-            arc_code = final_labels[final_count].arcs;
+            successors = final_labels[final_count].successors;
             base = labels[node].distance;
         } else {
             if (heap_size == 0) {
@@ -179,59 +205,35 @@ void run_dijkstra(const RoutingGraph& graph, Metric metric, std::span<const Weig
                 for (const HeapItem& item : moving) smallest = std::min(smallest, item.key);
                 current_block = smallest >> block_shift;
                 ensure_heap_room(moving.size());
-                for (const HeapItem& item : moving) enqueue(item.key, item.node, item.arcs);
+                for (const HeapItem& item : moving) enqueue(item.key, item.node, item.successors);
                 moving.clear();
                 continue;
             }
             const HeapItem item = heap_pop(items, heap_size);
             node = item.node;
-            arc_code = item.arcs;
+            successors = item.successors;
             base = item.key;
             // A stale copy: the node's better copy came first (or it was scanned from the stack).
             if (labels[node].stamp & kSettled) continue;
-        }
-        // While this node is scanned, fetch the first successor label of the node likely to be
-        // scanned next (its arcs were prefetched when it was queued; a range held elsewhere
-        // prefetches a wrong line, harmlessly).
-        if (final_count > 0) {
-            __builtin_prefetch(labels + arcs[final_labels[final_count - 1].arcs >> 5].head);
-        } else if (heap_size > 0) {
-            __builtin_prefetch(labels + arcs[items[0].arcs >> 5].head);
         }
         Label& label = labels[node];
         label.stamp |= kSettled;
         ++settled_count;
         if ((label.stamp & kTarget) && --targets_left == 0 && stop_early) break;
-        std::uint32_t begin = arc_code >> 5;
-        std::uint32_t end = begin + ((arc_code >> 1) & 15u);
-        if (((arc_code >> 1) & 15u) == RoutingGraph::kArcRangeElsewhere) {
-            begin = first_arc[node];
-            end = first_arc[node + 1];
-        }
-        ensure_heap_room(end - begin);
-        for (std::uint32_t arc = begin; arc < end; ++arc) {
-            const NodeId head = arcs[arc].head;
-            const PackedWeight candidate = base + arcs[arc].weight;
-            Label& next = labels[head];
-            if ((next.stamp & ~3u) != fresh) {
-                next = {candidate, node, fresh};
-            } else if (candidate < next.distance) {
-                next.distance = candidate;
-                next.parent = node;
-            } else {
-                continue;
-            }
-            // Through the head's only incoming arc, from a final label, the head's label is
-            // final too: it skips the queue.
-            const std::uint32_t head_arcs = arcs[arc].head_arcs;
-            // The head will be scanned later: start fetching its arcs now (a range held
-            // elsewhere prefetches arc 0, harmlessly).
-            __builtin_prefetch(arcs + (head_arcs >> 5));
-            if (head_arcs & 1u) {
-                final_labels[final_count++] = {head, head_arcs};
-            } else {
-                enqueue(candidate, head, head_arcs);
-            }
+        const std::uint32_t range_length = (successors >> 1) & 15u;
+        if (range_length != RoutingGraph::kSuccessorList) {
+            ensure_heap_room(range_length);
+            std::uint32_t first = successors >> 9;
+            if (first == RoutingGraph::kFirstSuccessorElsewhere) first = search_nodes[node].first_successor;
+            // Without a branch on the skipped position: successor i is range entry i, or i + 1
+            // from the skipped entry on.
+            const std::uint32_t skipped = (successors >> 5) & 15u;
+            const std::uint32_t successor_count = range_length - (skipped != RoutingGraph::kNoSkippedSuccessor);
+            for (std::uint32_t i = 0; i < successor_count; ++i) relax(first + i + (i >= skipped));
+        } else {
+            const std::uint32_t begin = first_arc[node], end = first_arc[node + 1];
+            ensure_heap_room(end - begin);
+            for (std::uint32_t arc = begin; arc < end; ++arc) relax(arc_heads[arc]);
         }
     }
     w.heap_size_ = heap_size;

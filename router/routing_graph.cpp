@@ -77,6 +77,21 @@ std::uint64_t fnv1a(std::uint64_t hash, std::uint64_t value) {
 
 } // namespace
 
+std::uint32_t RoutingGraph::successor_code(NodeId node, std::uint32_t range_begin, std::uint32_t range_end) const {
+    const std::uint32_t only_predecessor = first_reverse_arc_[node + 1] - first_reverse_arc_[node] == 1 ? 1u : 0u;
+    const std::uint32_t range_length = range_end - range_begin;
+    const std::uint32_t successor_count = first_arc_[node + 1] - first_arc_[node];
+    if (range_length >= kSuccessorList || successor_count + 1 < range_length) return kSuccessorList << 1 | only_predecessor;
+    // Successors are a subsequence of the range (the expansion walks the exits in order).
+    std::uint32_t skipped = kNoSkippedSuccessor;
+    if (successor_count < range_length) {
+        skipped = 0;
+        while (skipped < successor_count && arc_head_[first_arc_[node] + skipped] == range_begin + skipped) ++skipped;
+    }
+    const std::uint32_t first = std::min(range_begin, kFirstSuccessorElsewhere);
+    return first << 9 | skipped << 5 | range_length << 1 | only_predecessor;
+}
+
 bool should_honour_restrictions(const graph::RoadGraph& road_graph, RestrictionPolicy policy) {
     switch (policy) {
     case RestrictionPolicy::honour: return true;
@@ -133,12 +148,12 @@ RoutingGraph::RoutingGraph(const graph::RoadGraph& road_graph, RestrictionPolicy
             weights[node] = pack_weight(metric, node_time_ds_[node], node_length_dm_[node]);
         }
         search_block_shift_[static_cast<int>(metric)] = block_shift_for(weights);
-        std::vector<SearchArc>& per_arc = search_arcs_[static_cast<int>(metric)];
-        per_arc.resize(arc_head_.size());
-        for (std::size_t arc = 0; arc < arc_head_.size(); ++arc) {
-            const NodeId head = arc_head_[arc];
-            const bool only_arc = first_reverse_arc_[head + 1] - first_reverse_arc_[head] == 1;
-            per_arc[arc] = {head, arc_range_code(head) | (only_arc ? 1u : 0u), weights[head]};
+        std::vector<SearchNode>& search_nodes = search_nodes_[static_cast<int>(metric)];
+        search_nodes.resize(node_count);
+        for (NodeId node = 0; node < node_count; ++node) {
+            search_nodes[node] = {weights[node], successor_code(node, first_out[edges[node].head],
+                                                                first_out[edges[node].head + 1]),
+                                  first_out[edges[node].head]};
         }
     }
 

@@ -61,31 +61,29 @@ public:
         return node_weights_[static_cast<int>(metric)];
     }
 
-    // Per arc, what a search needs in one 16-byte record: the head, the head's weight
-    // (search_arcs(metric)[a].weight == node_weight(metric, arc_heads()[a])), whether this arc is
-    // the head's only incoming arc, and where the head's own arcs lie. A search reads them in
-    // step and carries the head's arc range along with the head (in its heap entry), so that
-    // scanning a node later needs no lookup in first_arc(): with the label, that lookup was the
-    // second dependent cache miss of every scan.
-    struct SearchArc {
-        NodeId head;
-        std::uint32_t head_arcs;   // HeadArcs code, see below
-        PackedWeight weight;
+    // Per node, what a search needs in one 16-byte record. Node e's successors are edges leaving
+    // e's head vertex, which are numbered consecutively (the road graph's CSR order): all of
+    // them but at most one skipped (the U-turn, or one restricted turn), so they are described
+    // by a range of node ids instead of an arc list. A scan then reads the successors' records
+    // and labels as two runs of consecutive entries, and both can be prefetched as soon as e is
+    // queued, from the code alone: on large graphs the successor labels were the main cache miss.
+    // The 32-bit code (`successors`):
+    //   bit 0      1 when e has a single predecessor (its only incoming arc is the one relaxed);
+    //   bits 1-4   successor range length (0-14), or kSuccessorList: e's successors are listed
+    //              in arc_heads()[first_arc()[e] .. first_arc()[e + 1]) (vertices with 15 or
+    //              more exits, or more than one forbidden turn);
+    //   bits 5-8   position in the range that is not a successor, kNoSkippedSuccessor if none;
+    //   bits 9-31  the range's first node, or kFirstSuccessorElsewhere: read first_successor.
+    struct SearchNode {
+        PackedWeight weight;               // == node_weight(metric, e)
+        std::uint32_t successors;          // code above
+        std::uint32_t first_successor;     // first node of the range (meaningless with a list)
     };
-    // The 32-bit code in SearchArc::head_arcs: bit 0 is 1 when the arc is the head's only
-    // incoming arc; bits 1-4 hold the head's arc count and bits 5-31 its first arc, unless the
-    // count field is kArcRangeElsewhere (count >= 15 or first arc >= 2^27), in which case the
-    // range must be read from first_arc().
-    static constexpr std::uint32_t kArcRangeElsewhere = 15;
-    static constexpr std::uint32_t arc_range_code(std::uint32_t first, std::uint32_t count) noexcept {
-        return first < (1u << 27) && count < kArcRangeElsewhere ? first << 5 | count << 1
-                                                                 : kArcRangeElsewhere << 1;
-    }
-    std::uint32_t arc_range_code(NodeId node) const noexcept {
-        return arc_range_code(first_arc_[node], first_arc_[node + 1] - first_arc_[node]);
-    }
-    std::span<const SearchArc> search_arcs(Metric metric) const noexcept {
-        return search_arcs_[static_cast<int>(metric)];
+    static constexpr std::uint32_t kSuccessorList = 15;
+    static constexpr std::uint32_t kNoSkippedSuccessor = 15;
+    static constexpr std::uint32_t kFirstSuccessorElsewhere = (1u << 23) - 1;
+    std::span<const SearchNode> search_nodes(Metric metric) const noexcept {
+        return search_nodes_[static_cast<int>(metric)];
     }
 
     // Dijkstra's queue orders keys exactly only within blocks of 2^shift packed-weight units
@@ -109,8 +107,9 @@ private:
     std::vector<std::uint32_t> node_time_ds_;
     std::vector<std::uint32_t> node_length_dm_;
     std::vector<PackedWeight> node_weights_[2];
-    std::vector<SearchArc> search_arcs_[2];
+    std::vector<SearchNode> search_nodes_[2];
     unsigned search_block_shift_[2] = {32, 32};
+    std::uint32_t successor_code(NodeId node, std::uint32_t range_begin, std::uint32_t range_end) const;
     bool honours_restrictions_ = false;
     std::uint64_t fingerprint_ = 0;
 };

@@ -193,3 +193,42 @@ TEST_CASE("Dijkstra's block queue: weights spanning many blocks and far start of
         }
     }
 }
+
+TEST_CASE("The search records describe exactly each node's successors and weight", "[dijkstra]") {
+    // The successor ranges (with one skipped entry) and the lists they fall back to must list
+    // the same turns as the routing graph's own adjacency, restrictions included (the grid has
+    // `no_*` and `only_*` restrictions). Self-consistency; exactness against BGL is checked above.
+    test::RandomGridOptions options;
+    options.seed = 13;
+    options.restrictions = 120;
+    const graph::RoadGraph road_graph = test::random_grid_graph(options);
+    const RoutingGraph routing_graph(road_graph, RestrictionPolicy::honour);
+    std::size_t ranges = 0, skips = 0, lists = 0;
+    for (Metric metric : {Metric::time, Metric::distance}) {
+        const auto records = routing_graph.search_nodes(metric);
+        for (NodeId node = 0; node < routing_graph.node_count(); ++node) {
+            REQUIRE(records[node].weight == routing_graph.node_weight(metric, node));
+            const std::uint32_t code = records[node].successors;
+            REQUIRE((code & 1u) == (routing_graph.predecessors(node).size() == 1 ? 1u : 0u));
+            const auto expected = routing_graph.successors(node);
+            const std::uint32_t length = (code >> 1) & 15u;
+            if (length == RoutingGraph::kSuccessorList) {
+                ++lists;
+                continue;   // the search reads successors() itself
+            }
+            std::uint32_t first = code >> 9;
+            if (first == RoutingGraph::kFirstSuccessorElsewhere) first = records[node].first_successor;
+            const std::uint32_t skipped = (code >> 5) & 15u;
+            std::vector<NodeId> decoded;
+            for (std::uint32_t position = 0; position < length; ++position) {
+                if (position != skipped) decoded.push_back(first + position);
+            }
+            ++ranges;
+            skips += skipped != RoutingGraph::kNoSkippedSuccessor;
+            REQUIRE(std::vector<NodeId>(expected.begin(), expected.end()) == decoded);
+        }
+    }
+    REQUIRE(ranges > 0);
+    REQUIRE(skips > 0);
+    REQUIRE(lists > 0);
+}
