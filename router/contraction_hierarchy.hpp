@@ -4,10 +4,11 @@
 // 2008, "Contraction Hierarchies"). Queries search upwards only, from both ends, and visit a few
 // hundred nodes instead of the whole graph, while returning exactly the Dijkstra optimum.
 //
-//  * Build: nodes are contracted in order of a priority (edge difference + contracted
-//    neighbours + search-space depth), kept lazily up to date; a shortcut u -> w through v is
-//    added only when a bounded witness search finds no path u -> w avoiding v at most as cheap.
-//    Shortcuts remember their middle node for unpacking.
+//  * Build: nodes are contracted in rounds of independent sets chosen by a priority (edge
+//    difference + contracted neighbours + search-space depth), on all cores, with the same
+//    result whatever the thread count (router/contraction_rounds.hpp); a shortcut u -> w through
+//    v is added only when a bounded witness search finds no path u -> w avoiding v at most as
+//    cheap. Shortcuts remember their middle node for unpacking.
 //  * Storage: upward arcs in an adjacency array per node (each arc usable forwards, backwards or
 //    both), ranks and a header; written as graph::ExtraSection arrays (layout in
 //    router/HIERARCHY.md) and mapped back without parsing.
@@ -43,9 +44,10 @@ class ContractionHierarchy {
 public:
     ContractionHierarchy() = default;
 
-    // Contracts the whole graph. `progress` may be null.
+    // Contracts the whole graph on `threads` threads (0 = all cores); the result is the same
+    // whatever the thread count. `progress` may be null.
     static ContractionHierarchy build(const RoutingGraph& routing_graph, Metric metric,
-                                      Progress* progress = nullptr);
+                                      Progress* progress = nullptr, unsigned threads = 0);
     // The hierarchy stored in the graph's sections for this metric, or nullopt when there is
     // none or it was built for another routing graph (fingerprint mismatch).
     static std::optional<ContractionHierarchy> from_sections(const graph::RoadGraph& road_graph,

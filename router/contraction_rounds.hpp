@@ -1,0 +1,35 @@
+#pragma once
+// contract_in_rounds: orders and contracts every node of the routing graph for one metric, the
+// way the parallel contraction-hierarchy builds do it (Vetter 2009, "Parallel Time-Dependent
+// Contraction Hierarchies"; Geisberger et al. 2008 for the priority terms):
+//  * every node has a priority: edge difference (shortcuts it would need minus arcs it removes)
+//    + contracted neighbours + depth (the simulation uses a cheap, hop-limited witness search);
+//  * a round contracts at once every node whose priority is smaller than that of all its
+//    remaining neighbours (an independent set: no two are adjacent), the witness searches of the
+//    round running on all threads against the graph as it was before the round;
+//  * the shortcuts are then inserted and the neighbours' priorities re-evaluated, in parallel.
+// The result depends on the graph only, never on the number of threads or their timing: work
+// is cut into fixed chunks whose results are applied in chunk order.
+
+#include "router/contraction_hierarchy.hpp"
+
+#include <cstdint>
+#include <vector>
+
+namespace ringroad { class Progress; }
+
+namespace ringroad::router {
+
+// The hierarchy in the stored layout (router/HIERARCHY.md): rank per node, upward arcs grouped
+// by their lower node.
+struct ContractedGraph {
+    std::vector<std::uint32_t> rank;
+    std::vector<std::uint32_t> first_arc;
+    std::vector<HierarchyArc> arcs;
+};
+
+// `threads` == 0: all cores. `progress` may be null.
+ContractedGraph contract_in_rounds(const RoutingGraph& routing_graph, Metric metric, unsigned threads,
+                                   Progress* progress);
+
+} // namespace ringroad::router

@@ -1,0 +1,114 @@
+#pragma once
+// WitnessSearch: the bounded Dijkstra a contraction runs from each in-neighbour u of a node v to
+// learn whether a path u -> w avoiding v is at most as cheap as u -> v -> w (a "witness", which
+// makes the shortcut unnecessary). It stops when every target is settled, when the next label
+// exceeds the bound, after a number of settled nodes, and it does not continue from nodes that
+// are a number of arcs from u (hop limit). Stopping early can only miss a witness, which adds a
+// needless shortcut, never a wrong distance.
+// Nodes the search must not pass through are told by a rule (AvoidNode, AvoidRoundFrom). A
+// workspace is reused between searches (stamped labels) and belongs to one thread.
+
+#include "router/contraction_graph.hpp"
+
+#include <algorithm>
+#include <cstdint>
+#include <span>
+#include <type_traits>
+#include <vector>
+
+namespace ringroad::router {
+
+struct WitnessLimits {
+    std::uint32_t settled_nodes;
+    std::uint32_t hops;
+};
+
+// A witness must avoid the node whose contraction is simulated.
+struct AvoidNode {
+    NodeId node;
+    bool excludes(NodeId other) const { return other == node; }
+};
+
+// When a round contracts an independent set at once, a witness for the node at `position` in
+// the round must also avoid the nodes of the round at or after that position
+// (round_position[x] >= kNotInRound for nodes outside the round). A witness through an earlier
+// node of the round stays valid: that node's own contraction keeps its paths (by a shortcut or a
+// witness that, in turn, avoids every node from its position on, so never relies on this one).
+struct AvoidRoundFrom {
+    static constexpr std::uint32_t kNotInRound = 0xFFFFFFF0u;
+    std::uint32_t position;
+    const std::uint32_t* round_position;   // per node
+    bool excludes(NodeId other) const {
+        const std::uint32_t at = round_position[other];
+        return at >= position && at < kNotInRound;
+    }
+};
+
+class WitnessSearch {
+public:
+    explicit WitnessSearch(std::uint32_t node_count) : labels_(node_count, Label{kUnreachableWeight, 0, 0}) {}
+
+    // Searches from `source` until the targets (out-neighbours of the avoided node) are settled
+    // or a limit is reached; distance() then tells the best known path length to each target.
+    template <typename Avoid>
+    void run(const ContractionGraph& graph, NodeId source, PackedWeight bound, std::span<const ContractionArc> targets,
+             const Avoid& avoid, const WitnessLimits& limits);
+    PackedWeight distance(NodeId node) const { return labels_[node].stamp == query_ ? labels_[node].distance : kUnreachableWeight; }
+
+private:
+    // One cache line access per node: its label, the query it belongs to, and whether it is a
+    // target of the current query.
+    struct Label {
+        PackedWeight distance;
+        std::uint32_t stamp;
+        std::uint32_t target_stamp;
+    };
+    struct HeapEntry {
+        PackedWeight weight;
+        NodeId node;
+        std::uint32_t hops;
+    };
+    struct Later {
+        bool operator()(const HeapEntry& a, const HeapEntry& b) const { return a.weight > b.weight; }
+    };
+    void start(NodeId source, std::span<const ContractionArc> targets, std::uint32_t& targets_left);
+
+    std::vector<Label> labels_;
+    std::uint32_t query_ = 0;
+    std::vector<HeapEntry> heap_;
+};
+
+template <typename Avoid>
+void WitnessSearch::run(const ContractionGraph& graph, NodeId source, PackedWeight bound,
+                        std::span<const ContractionArc> targets, const Avoid& avoid, const WitnessLimits& limits) {
+    static_assert(std::is_invocable_r_v<bool, decltype(&Avoid::excludes), const Avoid&, NodeId>);
+    std::uint32_t targets_left = 0;
+    start(source, targets, targets_left);
+    std::uint32_t settled = 0;
+    while (!heap_.empty() && targets_left > 0 && settled < limits.settled_nodes) {
+        std::pop_heap(heap_.begin(), heap_.end(), Later{});
+        const HeapEntry entry = heap_.back();
+        heap_.pop_back();
+        Label& label = labels_[entry.node];
+        if (entry.weight != label.distance) continue;   // superseded copy
+        ++settled;
+        if (label.target_stamp == query_) {
+            label.target_stamp = 0;
+            --targets_left;
+        }
+        if (entry.hops >= limits.hops) continue;
+        for (const ContractionArc& arc : graph.out(entry.node)) {
+            const PackedWeight candidate = entry.weight + arc.weight;
+            if (candidate > bound || candidate < entry.weight) continue;   // beyond the bound, or wrapped past 2^64
+            Label& next = labels_[arc.other];
+            if (next.stamp == query_ && next.distance <= candidate) continue;
+            if (avoid.excludes(arc.other)) continue;
+            next.stamp = query_;
+            next.distance = candidate;
+            heap_.push_back({candidate, arc.other, entry.hops + 1});
+            std::push_heap(heap_.begin(), heap_.end(), Later{});
+        }
+    }
+}
+
+} // namespace ringroad::router
