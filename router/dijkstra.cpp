@@ -9,7 +9,9 @@ namespace {
 constexpr std::uint32_t kSettled = 1;
 constexpr std::uint32_t kTarget = 2;
 constexpr std::uint32_t kLastQuery = 0x3fffffffu;   // stamps keep the query in 30 bits
-constexpr PackedWeight kSentinelKey = kUnreachableWeight;
+constexpr std::uint32_t kNoItem = 0xffffffffu;
+constexpr unsigned kSlotBits = 12;                      // 4096 slots per block
+constexpr std::uint32_t kSlotCount = 1u << kSlotBits;
 }
 
 DijkstraWorkspace::DijkstraWorkspace(std::uint32_t node_count) { labels_.assign(node_count, Label{kUnreachableWeight, kNoNode, 0}); }
@@ -23,63 +25,16 @@ void DijkstraWorkspace::start_query(std::uint32_t node_count) {
         for (Label& label : labels_) label.stamp = 0;
         query_ = 1;
     }
-    std::fill(heap_.begin(), heap_.begin() + static_cast<std::ptrdiff_t>(std::min(heap_.size(), heap_size_)),
-              HeapItem{kSentinelKey, kNoNode, 0});
-    heap_size_ = 0;
-    for (std::vector<HeapItem>& bucket : buckets_) bucket.clear();
+    if (slot_heads_.size() != kSlotCount) slot_heads_.assign(kSlotCount, kNoItem);
+    std::fill(std::begin(filled_slots_), std::end(filled_slots_), 0);
+    for (std::vector<QueuedNode>& bucket : buckets_) bucket.clear();
     settled_count_ = 0;
 }
 
 namespace {
-
-using HeapItem = DijkstraWorkspace::HeapItem;
-
-// 4-ary heap on a raw array (see dijkstra.hpp); the search keeps array and size in locals so
-// that label stores, which the compiler must assume may alias workspace members, do not force
-// them to be reloaded.
-inline void heap_push(HeapItem* items, std::size_t& size, PackedWeight key, NodeId node, std::uint32_t successors) {
-    std::size_t hole = size++;
-    while (hole > 0) {
-        const std::size_t parent = (hole - 1) / 4;
-        if (items[parent].key <= key) break;
-        items[hole] = items[parent];
-        hole = parent;
-    }
-    items[hole] = {key, node, successors};
-}
-
-inline HeapItem heap_pop(HeapItem* items, std::size_t& size) {
-    const HeapItem top = items[0];
-    const std::size_t last_index = --size;
-    const HeapItem last = items[last_index];
-    items[last_index] = {kSentinelKey, kNoNode, 0};
-    if (last_index == 0) return top;
-    // Walk the hole down to a leaf along the smallest children (sentinels never win)...
-    std::size_t hole = 0;
-    for (std::size_t first = 1; first < last_index; first = 4 * hole + 1) {
-        const std::size_t left = first + (items[first + 1].key < items[first].key);
-        const std::size_t right = first + 2 + (items[first + 3].key < items[first + 2].key);
-        const std::size_t smallest = items[right].key < items[left].key ? right : left;
-        items[hole] = items[smallest];
-        hole = smallest;
-    }
-    // ...then lift the former last item from there.
-    while (hole > 0) {
-        const std::size_t parent = (hole - 1) / 4;
-        if (items[parent].key <= last.key) break;
-        items[hole] = items[parent];
-        hole = parent;
-    }
-    items[hole] = last;
-    return top;
-}
-
+using QueuedNode = DijkstraWorkspace::QueuedNode;
+using SlotItem = DijkstraWorkspace::SlotItem;
 } // namespace
-
-void DijkstraWorkspace::reserve_heap(std::size_t items) {
-    // Four sentinel slots beyond the last item, always.
-    if (items + 5 > heap_.size()) heap_.resize(std::max<std::size_t>({64, 2 * heap_.size(), items + 5}), {kSentinelKey, kNoNode, 0});
-}
 
 std::vector<NodeId> DijkstraWorkspace::tree_path(NodeId node) const {
     std::vector<NodeId> path;
@@ -107,36 +62,84 @@ void run_dijkstra(const RoutingGraph& graph, Metric metric, std::span<const Weig
     }
     const bool stop_early = !stop_when_settled.empty();
 
-    // The queue (see dijkstra.hpp): keys in the current block live in the heap, later ones in
+    // The queue (see dijkstra.hpp): keys in the current block live in its slots, later ones in
     // the bucket numbered by the highest block-number bit in which they differ from the current
     // block (bucket i holds blocks greater than the current one, and all of bucket i's blocks
     // are smaller than those of bucket i + 1).
     const unsigned block_shift = graph.search_block_shift(metric);
-    std::vector<HeapItem>* const buckets = w.buckets_;
+    std::vector<QueuedNode>* const buckets = w.buckets_;
     std::uint64_t filled_buckets = 0;   // bit i: bucket i is not empty
     PackedWeight current_block = kUnreachableWeight;
     for (const WeightedNode& start : starts) current_block = std::min(current_block, start.weight >> block_shift);
 
-    HeapItem* items = w.heap_.data();
-    std::size_t heap_size = w.heap_size_;
-    std::size_t heap_capacity = w.heap_.size();   // including the four sentinel slots
-    const auto ensure_heap_room = [&](std::size_t more) {
-        if (heap_size + more + 5 > heap_capacity) {
-            w.heap_size_ = heap_size;
-            w.reserve_heap(heap_size + more);
-            items = w.heap_.data();
-            heap_capacity = w.heap_.size();
+    // The current block: 4096 slots of consecutive key ranges, each an unsorted list (through
+    // the pool of slot items) from which a pop takes the smallest key; a bitmap finds the next
+    // filled slot. Lists are short (a slot is 1/256 of a median node weight), so popping is a
+    // short scan instead of a walk down a heap.
+    const unsigned slot_shift = block_shift - kSlotBits;
+    std::uint32_t* const slot_heads = w.slot_heads_.data();
+    std::uint64_t* const filled_slots = w.filled_slots_;
+    SlotItem* pool = w.slot_items_.data();
+    std::uint32_t pool_capacity = static_cast<std::uint32_t>(w.slot_items_.size());
+    std::uint32_t pool_used = 0;
+    std::uint32_t free_item = kNoItem;
+    std::size_t queued = 0;          // items in the current block's slots
+    std::uint32_t cursor = 0;        // no filled slot below it
+    const auto ensure_slot_room = [&](std::size_t more) {
+        if (pool_used + more > pool_capacity) {
+            w.slot_items_.resize(std::max<std::size_t>({1024, 2 * w.slot_items_.size(), pool_used + more}));
+            pool = w.slot_items_.data();
+            pool_capacity = static_cast<std::uint32_t>(w.slot_items_.size());
         }
     };
     const auto enqueue = [&](PackedWeight key, NodeId node, std::uint32_t successors) {
         const PackedWeight block = key >> block_shift;
         if (block == current_block) {
-            heap_push(items, heap_size, key, node, successors);
+            const std::uint32_t slot = static_cast<std::uint32_t>(key >> slot_shift) & (kSlotCount - 1);
+            std::uint32_t item;
+            if (free_item != kNoItem) {
+                item = free_item;
+                free_item = pool[item].next;
+            } else {
+                item = pool_used++;
+            }
+            std::uint64_t& word = filled_slots[slot >> 6];
+            const std::uint64_t bit = std::uint64_t{1} << (slot & 63);
+            pool[item] = {key, node, successors, (word & bit) ? slot_heads[slot] : kNoItem};
+            slot_heads[slot] = item;
+            word |= bit;
+            ++queued;
         } else {
             const int bucket = std::bit_width(block ^ current_block);
             buckets[bucket].push_back({key, node, successors});
             filled_buckets |= std::uint64_t{1} << bucket;
         }
+    };
+    const auto pop_smallest = [&]() -> QueuedNode {
+        std::uint32_t word_index = cursor >> 6;
+        std::uint64_t word = filled_slots[word_index] & (~std::uint64_t{0} << (cursor & 63));
+        while (word == 0) word = filled_slots[++word_index];
+        const std::uint32_t slot = word_index * 64 + static_cast<std::uint32_t>(std::countr_zero(word));
+        cursor = slot;
+        std::uint32_t best = slot_heads[slot];
+        std::uint32_t before_best = kNoItem;
+        for (std::uint32_t before = best, item = pool[best].next; item != kNoItem; before = item, item = pool[item].next) {
+            if (pool[item].key < pool[best].key) {
+                best = item;
+                before_best = before;
+            }
+        }
+        const SlotItem taken = pool[best];
+        if (before_best == kNoItem) {
+            slot_heads[slot] = taken.next;
+            if (taken.next == kNoItem) filled_slots[word_index] &= ~(std::uint64_t{1} << (slot & 63));
+        } else {
+            pool[before_best].next = taken.next;
+        }
+        pool[best].next = free_item;
+        free_item = best;
+        --queued;
+        return {taken.key, taken.node, taken.successors};
     };
 
     for (const WeightedNode& start : starts) {
@@ -145,7 +148,7 @@ void run_dijkstra(const RoutingGraph& graph, Metric metric, std::span<const Weig
         if (start.weight < label.distance) {
             label.distance = start.weight;
             label.parent = kNoNode;
-            ensure_heap_room(1);
+            ensure_slot_room(1);
             enqueue(start.weight, start.node, graph.search_nodes(metric)[start.node].successors);
         }
     }
@@ -194,22 +197,23 @@ void run_dijkstra(const RoutingGraph& graph, Metric metric, std::span<const Weig
             successors = final_labels[final_count].successors;
             base = labels[node].distance;
         } else {
-            if (heap_size == 0) {
+            if (queued == 0) {
                 // The current block is done: the first non-empty bucket holds the next block;
                 // its smallest key's block becomes current and its items move down.
                 if (filled_buckets == 0) break;
                 const int bucket = std::countr_zero(filled_buckets);
                 filled_buckets &= filled_buckets - 1;
-                std::vector<HeapItem>& moving = buckets[bucket];
+                std::vector<QueuedNode>& moving = buckets[bucket];
                 PackedWeight smallest = kUnreachableWeight;
-                for (const HeapItem& item : moving) smallest = std::min(smallest, item.key);
+                for (const QueuedNode& item : moving) smallest = std::min(smallest, item.key);
                 current_block = smallest >> block_shift;
-                ensure_heap_room(moving.size());
-                for (const HeapItem& item : moving) enqueue(item.key, item.node, item.successors);
+                cursor = 0;
+                ensure_slot_room(moving.size());
+                for (const QueuedNode& item : moving) enqueue(item.key, item.node, item.successors);
                 moving.clear();
                 continue;
             }
-            const HeapItem item = heap_pop(items, heap_size);
+            const QueuedNode item = pop_smallest();
             node = item.node;
             successors = item.successors;
             base = item.key;
@@ -222,7 +226,7 @@ void run_dijkstra(const RoutingGraph& graph, Metric metric, std::span<const Weig
         if ((label.stamp & kTarget) && --targets_left == 0 && stop_early) break;
         const std::uint32_t range_length = (successors >> 1) & 15u;
         if (range_length != RoutingGraph::kSuccessorList) {
-            ensure_heap_room(range_length);
+            ensure_slot_room(range_length);
             std::uint32_t first = successors >> 9;
             if (first == RoutingGraph::kFirstSuccessorElsewhere) first = search_nodes[node].first_successor;
             // Without a branch on the skipped position: successor i is range entry i, or i + 1
@@ -232,11 +236,11 @@ void run_dijkstra(const RoutingGraph& graph, Metric metric, std::span<const Weig
             for (std::uint32_t i = 0; i < successor_count; ++i) relax(first + i + (i >= skipped));
         } else {
             const std::uint32_t begin = first_arc[node], end = first_arc[node + 1];
-            ensure_heap_room(end - begin);
+            ensure_slot_room(end - begin);
             for (std::uint32_t arc = begin; arc < end; ++arc) relax(arc_heads[arc]);
         }
     }
-    w.heap_size_ = heap_size;
+    // Leftovers of an early stop are forgotten by clearing the bitmap at the next start.
     w.settled_count_ = settled_count;
 }
 

@@ -86,10 +86,10 @@ public:
         return search_nodes_[static_cast<int>(metric)];
     }
 
-    // Dijkstra's queue orders keys exactly only within blocks of 2^shift packed-weight units
-    // (keys sharing key >> shift) and orders blocks by radix buckets: a block spans about one
-    // to two typical node weights of the primary quantity, so most pushes land in the current
-    // or the next block.
+    // Dijkstra's queue keeps the current block of 2^shift packed-weight units (keys sharing
+    // key >> shift) in exact order and later blocks in radix buckets (see dijkstra.hpp): a block
+    // spans 16 to 32 median node weights of the primary quantity, so most pushes land in the
+    // current block.
     unsigned search_block_shift(Metric metric) const noexcept { return search_block_shift_[static_cast<int>(metric)]; }
 
     std::span<const std::uint32_t> first_arc() const noexcept { return first_arc_; }
