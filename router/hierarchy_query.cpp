@@ -4,6 +4,8 @@
 
 #include <algorithm>
 #include <atomic>
+#include <cstdlib>
+#include <new>
 #include <functional>
 #include <thread>
 
@@ -14,26 +16,28 @@ using HeapEntry = std::pair<PackedWeight, NodeId>;
 constexpr auto kHeapOrder = std::greater<HeapEntry>();
 }
 
+void HierarchySearch::FreeLabels::operator()(Label* labels) const noexcept { std::free(labels); }
+
 HierarchySearch::HierarchySearch(const ContractionHierarchy& hierarchy) : hierarchy_(&hierarchy) {
-    for (Side* side : {&forward_, &backward_}) {
-        side->distance.assign(hierarchy.node_count(), kUnreachableWeight);
-        side->parent.assign(hierarchy.node_count(), kNoNode);
-        side->stamp.assign(hierarchy.node_count(), 0);
-    }
     backward_.forward = false;
 }
 
 void HierarchySearch::start(Side& side, std::span<const WeightedNode> starts) {
-    if (++side.query == 0) {
-        std::fill(side.stamp.begin(), side.stamp.end(), 0);
+    const std::size_t node_count = hierarchy_->node_count();
+    // Allocated on first use: a many-to-many worker searches in one direction only.
+    if (!side.labels) {
+        side.labels.reset(static_cast<Label*>(std::calloc(std::max<std::size_t>(node_count, 1), sizeof(Label))));
+        if (!side.labels) throw std::bad_alloc();
+        side.query = 0;
+    }
+    if (++side.query == 0) {   // the stamps wrapped around: forget every label
+        std::fill(side.labels.get(), side.labels.get() + node_count, Label{});
         side.query = 1;
     }
     side.heap.clear();
     for (const WeightedNode& start : starts) {
         if (start.weight < side.label(start.node)) {
-            side.stamp[start.node] = side.query;
-            side.distance[start.node] = start.weight;
-            side.parent[start.node] = kNoNode;
+            side.labels[start.node] = {start.weight, side.query, kNoNode};
             side.heap.push_back({start.weight, start.node});
             std::push_heap(side.heap.begin(), side.heap.end(), kHeapOrder);
         }
@@ -71,9 +75,7 @@ void HierarchySearch::relax(Side& side, NodeId node, PackedWeight weight) {
         if (!(arc.directions & outbound)) continue;
         const PackedWeight candidate = weight + arc.weight;
         if (candidate < side.label(arc.higher_node)) {
-            side.stamp[arc.higher_node] = side.query;
-            side.distance[arc.higher_node] = candidate;
-            side.parent[arc.higher_node] = node;
+            side.labels[arc.higher_node] = {candidate, side.query, node};
             side.heap.push_back({candidate, arc.higher_node});
             std::push_heap(side.heap.begin(), side.heap.end(), kHeapOrder);
         }
@@ -108,18 +110,18 @@ PackedWeight HierarchySearch::shortest(std::span<const WeightedNode> starts, std
     if (path && meeting != kNoNode) {
         path->clear();
         std::vector<NodeId> climb{meeting};
-        for (NodeId node = meeting; forward_.parent[node] != kNoNode; node = forward_.parent[node]) {
-            climb.push_back(forward_.parent[node]);
+        for (NodeId node = meeting; forward_.labels[node].parent != kNoNode; node = forward_.labels[node].parent) {
+            climb.push_back(forward_.labels[node].parent);
         }
         std::reverse(climb.begin(), climb.end());
         path->push_back(climb.front());
         for (std::size_t i = 1; i < climb.size(); ++i) {
-            hierarchy_->unpack_arc(climb[i - 1], climb[i], forward_.distance[climb[i]] - forward_.distance[climb[i - 1]],
-                                   *path);
+            hierarchy_->unpack_arc(climb[i - 1], climb[i],
+                                   forward_.labels[climb[i]].distance - forward_.labels[climb[i - 1]].distance, *path);
         }
-        for (NodeId node = meeting; backward_.parent[node] != kNoNode; node = backward_.parent[node]) {
-            const NodeId next = backward_.parent[node];
-            hierarchy_->unpack_arc(node, next, backward_.distance[node] - backward_.distance[next], *path);
+        for (NodeId node = meeting; backward_.labels[node].parent != kNoNode; node = backward_.labels[node].parent) {
+            const NodeId next = backward_.labels[node].parent;
+            hierarchy_->unpack_arc(node, next, backward_.labels[node].distance - backward_.labels[next].distance, *path);
         }
     }
     return best;
