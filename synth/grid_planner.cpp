@@ -26,8 +26,18 @@ constexpr std::uint32_t kNone = std::numeric_limits<std::uint32_t>::max();
 enum Question : std::uint64_t {
     line_spacing = 1, oneway_line, link_drop, link_feature, link_bend, cul_de_sac_pick, way_break,
     roundabout_pick, restriction_pick, restriction_kind, point_jitter, street_name, speed_limit,
-    spur_shape, motorway_wobble, feature_position
+    spur_shape, motorway_wobble, feature_position, cell_layout, collector_crossing, name_change_pick
 };
+
+// Residential cells (the blocks of lines between two collectors) are laid out with T-junctions:
+// in each cell one direction runs through, the other is broken into single-block cross streets
+// staggered like bricks, so a residential crossing meets three streets, not four.
+constexpr std::uint32_t kCellLines = 6;
+// A residential street that reaches a collector from both sides crosses it this often; otherwise
+// one side ends there (a T-junction on the collector).
+constexpr double kCollectorCrossingShare = 0.30;
+// Residential links whose way changes name part-way (a junction of two ways end to end).
+constexpr double kNameChangeShare = 0.35;
 
 enum class LineClass : std::uint8_t { residential, tertiary, secondary, primary };
 
@@ -102,6 +112,7 @@ struct LinkPlan {
     bool exists = true;
     LinkFeature feature = LinkFeature::none;
     int bend_points = 0;        // shape nodes drawing a bend (0, 1 or 2)
+    int name_change = 0;        // 0: none; -1: the way changes name near the link's start, +1: near its end
 };
 
 // Ways that end or start at a crossing, for turn restrictions: index 0 along the row, 1 along
@@ -218,15 +229,55 @@ private:
 
     // ---- residential links ----
 
+    // Whether a residential link (at least 60 m long) is drawn, before the collector rule: the
+    // through direction of its cell keeps every link but a few, the other keeps every second one.
+    bool cell_link_exists(int orientation, std::uint32_t line, std::uint32_t cross) const {
+        const LatticeLine& street = lines(orientation)[line];
+        if (street.boundary) return true;
+        const std::uint32_t along = lines(1 - orientation)[cross].logical;
+        const std::uint32_t row_cell = orientation == kRows ? street.logical / kCellLines : along / kCellLines;
+        const std::uint32_t column_cell = orientation == kRows ? along / kCellLines : street.logical / kCellLines;
+        const std::uint64_t cell = choice_hash(seed(), cell_layout, row_cell, column_cell);
+        const int through = static_cast<int>(cell & 1);
+        if (orientation != through) return (street.logical + along + ((cell >> 1) & 1)) % 2 == 0;
+        const std::uint64_t key = choice_hash(seed(), link_drop, orientation, line, cross);
+        return street.oneway != 0 || unit_interval(key) >= 0.03;
+    }
+
+    static bool is_long_enough(Point2 from, Point2 to) { return std::hypot(to.x - from.x, to.y - from.y) >= 60.0; }
+
+    // A residential link beside a single-carriageway collector or arterial it would cross: when
+    // the street's link on the far side exists too, the street crosses only sometimes; otherwise
+    // one of the two links (by hash) is left out.
+    bool cut_at_major_crossing(int orientation, std::uint32_t line, std::uint32_t cross) const {
+        const LatticeLine& street = lines(orientation)[line];
+        if (street.oneway != 0 || street.boundary) return false;
+        const std::vector<LatticeLine>& crossing = lines(1 - orientation);
+        const auto side_cut = [&](std::uint32_t major, std::uint32_t other_link_start, bool this_is_after) {
+            const LatticeLine& major_line = crossing[major];
+            if (major_line.line_class == LineClass::residential || is_dual(major_line.logical) || major_line.boundary) return false;
+            if (other_link_start + 1 >= crossing.size()) return false;
+            const Point2 from = point_position(orientation, line, other_link_start);
+            const Point2 to = point_position(orientation, line, other_link_start + 1);
+            if (!is_long_enough(from, to) || !cell_link_exists(orientation, line, other_link_start)) return false;
+            const std::uint64_t hash = choice_hash(seed(), collector_crossing, orientation, line, major);
+            if (unit_interval(hash) < kCollectorCrossingShare) return false;
+            return ((hash >> 7) & 1) == (this_is_after ? 1u : 0u);
+        };
+        if (cross > 0 && side_cut(cross, cross - 1, true)) return true;
+        return side_cut(cross + 1, cross + 1, false);
+    }
+
     LinkPlan plan_link(int orientation, std::uint32_t line, std::uint32_t cross, double length) {
         LinkPlan link;
         const LatticeLine& street = lines(orientation)[line];
         if (street.line_class != LineClass::residential || length < 60.0) return link;
-        const std::uint64_t key = choice_hash(seed(), link_drop, orientation, line, cross);
-        if (street.oneway == 0 && !street.boundary && unit_interval(key) < 0.05) {
+        if (!cell_link_exists(orientation, line, cross) || cut_at_major_crossing(orientation, line, cross)) {
             link.exists = false;
             return link;
         }
+        const std::uint64_t change = choice_hash(seed(), name_change_pick, orientation, line, cross);
+        if (unit_interval(change) < kNameChangeShare) link.name_change = (change >> 9) & 1 ? 1 : -1;
         const double feature = unit_interval(choice_hash(seed(), link_feature, orientation, line, cross));
         if (feature < 0.010 && street.oneway == 0) link.feature = LinkFeature::bollard;
         else if (feature < 0.015) link.feature = LinkFeature::gate;
@@ -374,7 +425,9 @@ private:
                 current_.assign(1, point_node(orientation, line, next));
                 continue;
             }
+            if (link.name_change < 0) change_name_at(from, to, 0.15, name_of_section(), section);
             add_link_interior(orientation, line, cross, link, from, to);
+            if (link.name_change > 0) change_name_at(from, to, 0.85, name_of_section(), section);
             const bool last = next + 1 == crossing;
             if (roundabout_at(orientation, line, next)) {
                 current_.push_back(ring_entry(orientation, line, next, true));
@@ -394,6 +447,16 @@ private:
             if (!last) note_crossing(orientation, line, next, false, static_cast<std::uint32_t>(plan_.ways.size()));
         }
         finish_way(name_of_section());
+    }
+
+    // Ends the current way at a new node part-way along the link and starts the next section,
+    // under another name, from the same node.
+    void change_name_at(Point2 from, Point2 to, double fraction, std::uint32_t name, std::uint32_t& section) {
+        const std::uint32_t node = add_node({from.x + (to.x - from.x) * fraction, from.y + (to.y - from.y) * fraction});
+        current_.push_back(node);
+        finish_way(name);
+        ++section;
+        current_.assign(1, node);
     }
 
     void finish_way(std::uint32_t name) {
