@@ -148,6 +148,7 @@ RoutingGraph::RoutingGraph(const graph::RoadGraph& road_graph, RestrictionPolicy
             weights[node] = pack_weight(metric, node_time_ds_[node], node_length_dm_[node]);
         }
         search_block_shift_[static_cast<int>(metric)] = block_shift_for(weights);
+        smallest_node_weight_[static_cast<int>(metric)] = weights.empty() ? 0 : *std::min_element(weights.begin(), weights.end());
         std::vector<SearchNode>& search_nodes = search_nodes_[static_cast<int>(metric)];
         search_nodes.resize(node_count);
         for (NodeId node = 0; node < node_count; ++node) {

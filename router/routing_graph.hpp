@@ -91,6 +91,9 @@ public:
     // spans 16 to 32 median node weights of the primary quantity, so most pushes land in the
     // current block.
     unsigned search_block_shift(Metric metric) const noexcept { return search_block_shift_[static_cast<int>(metric)]; }
+    // The smallest node weight (0 for an empty graph): keys closer than this cannot improve one
+    // another, so the queue may take them in any order.
+    PackedWeight smallest_node_weight(Metric metric) const noexcept { return smallest_node_weight_[static_cast<int>(metric)]; }
 
     std::span<const std::uint32_t> first_arc() const noexcept { return first_arc_; }
     std::span<const NodeId> arc_heads() const noexcept { return arc_head_; }
@@ -109,6 +112,7 @@ private:
     std::vector<PackedWeight> node_weights_[2];
     std::vector<SearchNode> search_nodes_[2];
     unsigned search_block_shift_[2] = {32, 32};
+    PackedWeight smallest_node_weight_[2] = {0, 0};
     std::uint32_t successor_code(NodeId node, std::uint32_t range_begin, std::uint32_t range_end) const;
     bool honours_restrictions_ = false;
     std::uint64_t fingerprint_ = 0;
