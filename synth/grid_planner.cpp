@@ -35,7 +35,10 @@ enum Question : std::uint64_t {
 constexpr std::uint32_t kCellLines = 6;
 // A residential street that reaches a collector from both sides crosses it this often; otherwise
 // one side ends there (a T-junction on the collector).
-constexpr double kCollectorCrossingShare = 0.30;
+constexpr double kCollectorCrossingShare = 0.10;
+// Cross streets left out of the brick pattern, so a cell is closer to a tree than to a lattice:
+// the through streets then meet fewer of them.
+constexpr double kMissingCrossStreetShare = 0.45;
 // Residential links whose way changes name part-way (a junction of two ways end to end).
 constexpr double kNameChangeShare = 0.35;
 
@@ -239,8 +242,11 @@ private:
         const std::uint32_t column_cell = orientation == kRows ? along / kCellLines : street.logical / kCellLines;
         const std::uint64_t cell = choice_hash(seed(), cell_layout, row_cell, column_cell);
         const int through = static_cast<int>(cell & 1);
-        if (orientation != through) return (street.logical + along + ((cell >> 1) & 1)) % 2 == 0;
         const std::uint64_t key = choice_hash(seed(), link_drop, orientation, line, cross);
+        if (orientation != through) {
+            if ((street.logical + along + ((cell >> 1) & 1)) % 2 != 0) return false;
+            return street.oneway != 0 || unit_interval(key) >= kMissingCrossStreetShare;
+        }
         return street.oneway != 0 || unit_interval(key) >= 0.03;
     }
 

@@ -16,11 +16,11 @@ namespace {
 
 // Share of candidate links given a cul-de-sac while the grid size is searched; the final plan
 // moves it to hit the request, ideally staying within kLowestShare..kHighestShare.
-constexpr double kDefaultShare = 0.30;
+constexpr double kDefaultShare = 0.24;
 constexpr double kLowestShare = 0.12;
 constexpr double kHighestShare = 0.50;
 // Junctions per grid crossing, measured on seeds 1-3 (SYNTH.md); only the first guess uses it.
-constexpr double kJunctionsPerCrossing = 2.0;
+constexpr double kJunctionsPerCrossing = 1.7;
 constexpr std::uint32_t kSmallestGrid = 6;
 
 std::uint64_t threshold_for_share(double share) {
