@@ -26,7 +26,8 @@ constexpr std::uint32_t kNone = std::numeric_limits<std::uint32_t>::max();
 enum Question : std::uint64_t {
     line_spacing = 1, oneway_line, link_drop, link_feature, link_bend, cul_de_sac_pick, way_break,
     roundabout_pick, restriction_pick, restriction_kind, point_jitter, street_name, speed_limit,
-    spur_shape, motorway_wobble, feature_position, cell_layout, collector_crossing, name_change_pick
+    spur_shape, motorway_wobble, feature_position, cell_layout, collector_crossing, name_change_pick,
+    crescent_pick
 };
 
 // Residential cells (the blocks of lines between two collectors) are laid out with T-junctions:
@@ -39,6 +40,8 @@ constexpr double kCollectorCrossingShare = 0.10;
 // Cross streets left out of the brick pattern, so a cell is closer to a tree than to a lattice:
 // the through streets then meet fewer of them.
 constexpr double kMissingCrossStreetShare = 0.45;
+// Residential links with a crescent: a street that leaves the link and rejoins it further on.
+constexpr double kCrescentShare = 0.04;
 // Residential links whose way changes name part-way (a junction of two ways end to end).
 constexpr double kNameChangeShare = 0.35;
 
@@ -116,6 +119,7 @@ struct LinkPlan {
     LinkFeature feature = LinkFeature::none;
     int bend_points = 0;        // shape nodes drawing a bend (0, 1 or 2)
     int name_change = 0;        // 0: none; -1: the way changes name near the link's start, +1: near its end
+    bool crescent = false;      // a loop street leaving at 20 % of the link and rejoining at 80 %
 };
 
 // Ways that end or start at a crossing, for turn restrictions: index 0 along the row, 1 along
@@ -295,7 +299,9 @@ private:
                 link.feature = feature < 0.80 ? LinkFeature::cul_de_sac : LinkFeature::driveway;
             }
         }
-        if (link.feature == LinkFeature::none) {
+        // Decided apart from the cul-de-sac, so that each cul-de-sac still adds exactly two vertices.
+        link.crescent = unit_interval(choice_hash(seed(), crescent_pick, orientation, line, cross)) < kCrescentShare;
+        if (link.feature == LinkFeature::none && !link.crescent) {
             const double bend = unit_interval(choice_hash(seed(), link_bend, orientation, line, cross));
             if (bend < 0.25) link.bend_points = bend < 0.10 ? 2 : 1;
         }
@@ -324,6 +330,24 @@ private:
             }
             return;
         }
+        std::uint32_t crescent_end = kNone;
+        if (link.crescent) {
+            // On the side away from any spur: a loop 25-35 m deep, from 20 % to 80 % of the link.
+            const double depth = -(25.0 + 10.0 * unit_interval(mix64(shape + 2)));
+            const std::uint32_t start = add_node(point_at(0.2, 0));
+            crescent_end = add_node(point_at(0.8, 0));
+            add_side_way({start, add_node(point_at(0.3, depth)), add_node(point_at(0.5, depth * 1.15)), add_node(point_at(0.7, depth)),
+                          crescent_end},
+                         RoadKind::residential, name_key(street_name, 4, start), 0, 0);
+            current_.push_back(start);
+        }
+        add_link_feature(link, shape, point_at, along, across);
+        if (crescent_end != kNone) current_.push_back(crescent_end);
+    }
+
+    // The barrier or spur in the middle of a link, if any.
+    template <typename PointAt>
+    void add_link_feature(const LinkPlan& link, std::uint64_t shape, const PointAt& point_at, Point2 along, Point2 across) {
         if (link.feature == LinkFeature::none) return;
         const double fraction = 0.35 + 0.3 * unit_interval(mix64(shape));
         const Point2 middle = point_at(fraction, 0);
