@@ -51,6 +51,12 @@ void ArcPool::release(NodeId node) {
     lists_[node].capacity = 0;
 }
 
+void ArcPool::release_memory() {
+    std::vector<List>().swap(lists_);
+    std::vector<ContractionArc>().swap(pool_);
+    abandoned_ = 0;
+}
+
 // Moves every list to the front in node order, keeping a quarter of its size as room.
 void ArcPool::compact() {
     std::uint64_t total = 0;
@@ -114,6 +120,11 @@ void ContractionGraph::remove_node(NodeId node) {
     for (const ContractionArc& arc : in_.arcs(node)) out_.erase(arc.other, node);
     out_.release(node);
     in_.release(node);
+}
+
+void ContractionGraph::release_memory() {
+    out_.release_memory();
+    in_.release_memory();
 }
 
 } // namespace ringroad::router

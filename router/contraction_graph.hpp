@@ -37,6 +37,7 @@ public:
     void erase(NodeId node, NodeId other);
     // Drops every arc of `node` and gives up its room.
     void release(NodeId node);
+    void release_memory();
 
 private:
     void compact();
@@ -66,6 +67,8 @@ public:
     void add_or_improve(NodeId from, NodeId to, PackedWeight weight, NodeId middle);
     // Removes `node` and all arcs touching it.
     void remove_node(NodeId node);
+    // Gives the memory back once the contraction is over.
+    void release_memory();
 
 private:
     std::uint32_t node_count_;

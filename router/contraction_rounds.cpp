@@ -107,6 +107,10 @@ public:
             if (progress) progress->update(static_cast<double>(next_rank) / node_count_);
         }
         if (progress) progress->finish();
+        // The stored arrays are assembled next; at 3 million nodes the dynamic graph and the
+        // search workspaces would add about a gigabyte to that peak.
+        graph_.release_memory();
+        searches_.clear();
         return assemble();
     }
 
@@ -281,6 +285,7 @@ private:
             std::copy_n(upward_arcs_.begin() + static_cast<std::ptrdiff_t>(upward_begin_[node]), upward_count_[node],
                         result.arcs.begin() + result.first_arc[node]);
         }
+        std::vector<HierarchyArc>().swap(upward_arcs_);
         return result;
     }
 
