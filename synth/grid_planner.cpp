@@ -37,9 +37,11 @@ constexpr std::uint32_t kCellLines = 6;
 // A residential street that reaches a collector from both sides crosses it this often; otherwise
 // one side ends there (a T-junction on the collector).
 constexpr double kCollectorCrossingShare = 0.10;
-// Cross streets left out of the brick pattern, so a cell is closer to a tree than to a lattice:
-// the through streets then meet fewer of them.
-constexpr double kMissingCrossStreetShare = 0.45;
+// Cross-street blocks of the brick pattern left out (except on the cell's spine line), so a
+// cell is closer to a tree than to a lattice: the through streets meet fewer of them.
+constexpr double kMissingCrossStreetShare = 0.75;
+// The cross-street line (index within the cell) that keeps all its blocks.
+constexpr std::uint32_t kSpineLine = 2;
 // Residential links with a crescent: a street that leaves the link and rejoins it further on.
 constexpr double kCrescentShare = 0.04;
 // Residential links whose way changes name part-way (a junction of two ways end to end).
@@ -238,17 +240,32 @@ private:
 
     // Whether a residential link (at least 60 m long) is drawn, before the collector rule: the
     // through direction of its cell keeps every link but a few, the other keeps every second one.
+    // The layout hash of the cell holding a link: bit 0 its through direction, bit 1 the shift
+    // of its brick pattern.
+    std::uint64_t cell_of_link(int orientation, std::uint32_t line, std::uint32_t cross) const {
+        const std::uint32_t street = lines(orientation)[line].logical;
+        const std::uint32_t along = lines(1 - orientation)[cross].logical;
+        const std::uint32_t row_cell = orientation == kRows ? street / kCellLines : along / kCellLines;
+        const std::uint32_t column_cell = orientation == kRows ? along / kCellLines : street / kCellLines;
+        return choice_hash(seed(), cell_layout, row_cell, column_cell);
+    }
+
+    bool is_through_link(int orientation, std::uint32_t line, std::uint32_t cross) const {
+        return static_cast<int>(cell_of_link(orientation, line, cross) & 1) == orientation;
+    }
+
     bool cell_link_exists(int orientation, std::uint32_t line, std::uint32_t cross) const {
         const LatticeLine& street = lines(orientation)[line];
         if (street.boundary) return true;
         const std::uint32_t along = lines(1 - orientation)[cross].logical;
-        const std::uint32_t row_cell = orientation == kRows ? street.logical / kCellLines : along / kCellLines;
-        const std::uint32_t column_cell = orientation == kRows ? along / kCellLines : street.logical / kCellLines;
-        const std::uint64_t cell = choice_hash(seed(), cell_layout, row_cell, column_cell);
-        const int through = static_cast<int>(cell & 1);
+        const std::uint64_t cell = cell_of_link(orientation, line, cross);
         const std::uint64_t key = choice_hash(seed(), link_drop, orientation, line, cross);
-        if (orientation != through) {
+        if (!is_through_link(orientation, line, cross)) {
             if ((street.logical + along + ((cell >> 1) & 1)) % 2 != 0) return false;
+            // One cross-street line per cell keeps all its blocks, joining every through street
+            // to a neighbour or a collector, so few pieces of street are cut off entirely.
+            const std::uint32_t in_cell = street.logical % kCellLines;
+            if (in_cell == kSpineLine) return true;
             return street.oneway != 0 || unit_interval(key) >= kMissingCrossStreetShare;
         }
         return street.oneway != 0 || unit_interval(key) >= 0.03;
@@ -272,6 +289,11 @@ private:
             if (!is_long_enough(from, to) || !cell_link_exists(orientation, line, other_link_start)) return false;
             const std::uint64_t hash = choice_hash(seed(), collector_crossing, orientation, line, major);
             if (unit_interval(hash) < kCollectorCrossingShare) return false;
+            // A through street keeps its way to the collector; a single-block cross street gives
+            // way, so fewer pieces of street are cut off from everything.
+            const bool this_through = is_through_link(orientation, line, this_is_after ? major : major - 1);
+            const bool other_through = is_through_link(orientation, line, other_link_start);
+            if (this_through != other_through) return !this_through;
             return ((hash >> 7) & 1) == (this_is_after ? 1u : 0u);
         };
         if (cross > 0 && side_cut(cross, cross - 1, true)) return true;
