@@ -101,8 +101,13 @@ inline graph::RoadGraph random_grid_graph(const RandomGridOptions& options) {
         if (unit(random) < 0.3) {   // a bend in the middle
             const auto& data = builder.data();
             const graph::Coordinate pa = data.coordinates[a], pb = data.coordinates[b];
-            shape.push_back({(pa.lat_e7 + pb.lat_e7) / 2 + static_cast<std::int32_t>((unit(random) - 0.5) * 1500),
-                             (pa.lon_e7 + pb.lon_e7) / 2 + static_cast<std::int32_t>((unit(random) - 0.5) * 1500)});
+            // The midpoint in 64 bits: two longitudes near -140 degrees (-1.4e9 in 1e-7 degrees)
+            // overflow a 32-bit sum.
+            const auto midpoint = [](std::int32_t a, std::int32_t b) {
+                return static_cast<std::int32_t>((std::int64_t{a} + std::int64_t{b}) / 2);
+            };
+            shape.push_back({midpoint(pa.lat_e7, pb.lat_e7) + static_cast<std::int32_t>((unit(random) - 0.5) * 1500),
+                             midpoint(pa.lon_e7, pb.lon_e7) + static_cast<std::int32_t>((unit(random) - 0.5) * 1500)});
         }
         const double speed = speeds[static_cast<std::size_t>(unit(random) * 4) % 4];
         const graph::SegmentId id = builder.add_road(a, b, speed, !one_way || !reversed, !one_way || reversed,
