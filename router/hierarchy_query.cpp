@@ -1,13 +1,9 @@
 #include "router/hierarchy_query.hpp"
 
-#include "router/weight_buffer.hpp"
-
 #include <algorithm>
-#include <atomic>
 #include <cstdlib>
-#include <new>
 #include <functional>
-#include <thread>
+#include <new>
 
 namespace ringroad::router {
 
@@ -138,78 +134,6 @@ void HierarchySearch::upward_search(std::span<const WeightedNode> starts, bool f
         settled.push_back({node, weight});
         relax(side, node, weight);
     }
-}
-
-namespace {
-
-// Runs body(search, scratch, index) for index in [0, count) on `threads` threads, each with its
-// own search and scratch list.
-template <typename Body>
-void parallel_for(const ContractionHierarchy& hierarchy, std::size_t count, unsigned threads, Body body) {
-    static_assert(std::is_invocable_v<Body&, HierarchySearch&, std::vector<WeightedNode>&, std::size_t>);
-    if (threads == 0) threads = std::max(1u, std::thread::hardware_concurrency());
-    threads = static_cast<unsigned>(std::min<std::size_t>(threads, std::max<std::size_t>(count, 1)));
-    std::atomic<std::size_t> next{0};
-    const auto worker = [&] {
-        HierarchySearch search(hierarchy);
-        std::vector<WeightedNode> scratch;
-        for (std::size_t index = next++; index < count; index = next++) body(search, scratch, index);
-    };
-    std::vector<std::thread> pool;
-    for (unsigned t = 1; t < threads; ++t) pool.emplace_back(worker);
-    worker();
-    for (std::thread& thread : pool) thread.join();
-}
-
-struct BucketEntry {
-    std::uint32_t target;
-    PackedWeight weight;
-};
-
-} // namespace
-
-std::vector<PackedWeight> hierarchy_many_to_many(const ContractionHierarchy& hierarchy,
-                                                 const std::vector<std::vector<WeightedNode>>& starts,
-                                                 const std::vector<std::vector<WeightedNode>>& ends,
-                                                 unsigned threads) {
-    // Backward searches from every target fill the buckets.
-    std::vector<std::vector<WeightedNode>> reached(ends.size());
-    parallel_for(hierarchy, ends.size(), threads, [&](HierarchySearch& search, std::vector<WeightedNode>&, std::size_t target) {
-        search.upward_search(ends[target], /*forward=*/false, reached[target]);
-    });
-    const std::uint32_t node_count = hierarchy.node_count();
-    std::vector<std::uint32_t> first_entry(std::size_t{node_count} + 1, 0);
-    for (const auto& list : reached) {
-        for (const WeightedNode& entry : list) ++first_entry[entry.node + 1];
-    }
-    for (std::uint32_t node = 0; node < node_count; ++node) first_entry[node + 1] += first_entry[node];
-    std::vector<BucketEntry> buckets(first_entry.back());
-    {
-        std::vector<std::uint32_t> fill(first_entry.begin(), first_entry.end() - 1);
-        for (std::uint32_t target = 0; target < reached.size(); ++target) {
-            for (const WeightedNode& entry : reached[target]) buckets[fill[entry.node]++] = {target, entry.weight};
-        }
-    }
-    reached = {};
-
-    // Forward searches from every source scan them.
-    std::vector<PackedWeight> result = make_weight_buffer(starts.size() * ends.size(), kUnreachableWeight);
-    parallel_for(hierarchy, starts.size(), threads, [&](HierarchySearch& search, std::vector<WeightedNode>& settled,
-                                                        std::size_t source) {
-        settled.clear();
-        search.upward_search(starts[source], /*forward=*/true, settled);
-        PackedWeight* const row = result.data() + source * ends.size();
-        const BucketEntry* const entries = buckets.data();
-        for (const WeightedNode& entry : settled) {
-            // Most cells improve only a few times: an unconditional store of the minimum
-            // avoids a mispredicted branch per entry.
-            for (std::uint32_t i = first_entry[entry.node], end = first_entry[entry.node + 1]; i < end; ++i) {
-                PackedWeight& cell = row[entries[i].target];
-                cell = std::min(cell, entry.weight + entries[i].weight);
-            }
-        }
-    });
-    return result;
 }
 
 } // namespace ringroad::router

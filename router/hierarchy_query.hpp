@@ -67,6 +67,7 @@ private:
 
 // Many-to-many: result[i * ends.size() + j] = shortest weight from starts[i] to ends[j], computed
 // on `threads` threads (0 = all cores). Each start/end is a set of weighted nodes.
+// (router/bucket_many_to_many.cpp: its searches run on a per-direction copy of the arcs.)
 std::vector<PackedWeight> hierarchy_many_to_many(const ContractionHierarchy& hierarchy,
                                                  const std::vector<std::vector<WeightedNode>>& starts,
                                                  const std::vector<std::vector<WeightedNode>>& ends,
