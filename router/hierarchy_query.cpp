@@ -125,7 +125,14 @@ PackedWeight HierarchySearch::shortest(std::span<const WeightedNode> starts, std
 
 void HierarchySearch::upward_search(std::span<const WeightedNode> starts, bool forward,
                                     std::vector<WeightedNode>& settled) {
-    Side& side = forward ? forward_ : backward_;
+    // Both directions use the forward side's labels, so a many-to-many worker that searches
+    // backwards and then forwards touches one label array, not two.
+    Side& side = forward_;
+    side.forward = forward;
+    struct RestoreDirection {
+        Side& side;
+        ~RestoreDirection() { side.forward = true; }   // shortest() expects a forward side
+    } restore{side};
     start(side, starts);
     NodeId node = kNoNode;
     PackedWeight weight = 0;
