@@ -154,14 +154,8 @@ int main(int argc, char** argv) {
         run_suite("Andorra", extract::extract_and_build_road_graph(options, nullptr), threads, metrics);
     }
     for (std::uint32_t rows : grid_sizes) {
-        // Same options as router_bench's grids.
-        test::RandomGridOptions grid;
-        grid.rows = rows;
-        grid.columns = rows;
-        grid.restrictions = rows * rows / 50;
-        grid.seed = 2024;
         run_suite("random street grid " + std::to_string(rows) + " x " + std::to_string(rows),
-                  test::random_grid_graph(grid), threads, metrics);
+                  test::random_grid_graph(test::benchmark_grid_options(rows)), threads, metrics);
     }
     return 0;
 }

@@ -383,13 +383,8 @@ int main(int argc, char** argv) {
         run_on(synth_graph);
     }
     for (std::uint32_t grid_rows : grid_sizes) {
-        test::RandomGridOptions grid;
-        grid.rows = grid_rows;
-        grid.columns = grid_rows;
-        grid.restrictions = grid_rows * grid_rows / 50;
-        grid.seed = 2024;
         start = std::chrono::steady_clock::now();
-        const graph::RoadGraph grid_graph = test::random_grid_graph(grid);
+        const graph::RoadGraph grid_graph = test::random_grid_graph(test::benchmark_grid_options(grid_rows));
         std::printf("## random street grid %u x %u (generated in %.0f ms)\n", grid_rows, grid_rows, milliseconds_since(start));
         run_on(grid_graph);
     }

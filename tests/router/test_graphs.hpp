@@ -79,6 +79,17 @@ struct RandomGridOptions {
     std::uint64_t seed = 1;
 };
 
+// The square grids the benchmarks compare (router_bench, hierarchy_build_bench): one turn
+// restriction per 50 junctions, a fixed seed.
+inline RandomGridOptions benchmark_grid_options(std::uint32_t rows) {
+    RandomGridOptions grid;
+    grid.rows = rows;
+    grid.columns = rows;
+    grid.restrictions = rows * rows / 50;
+    grid.seed = 2024;
+    return grid;
+}
+
 // A jittered street grid about 100 m apart near 17 N, 140 W (open Pacific, no real place).
 inline graph::RoadGraph random_grid_graph(const RandomGridOptions& options) {
     std::mt19937_64 random(options.seed);
