@@ -10,6 +10,7 @@
 //
 // Usage: hierarchy_build_bench [--grid ROWS]... [--no-extract] [--threads N] [--metric time|distance]
 //   (default: Andorra, then a 300 x 300 grid; --grid 0 skips the grids)
+#include "bench/hierarchy_search_space.hpp"
 #include "bench/peak_memory.hpp"
 #include "extract/road_extractor.hpp"
 #include "router/contraction_hierarchy.hpp"
@@ -43,19 +44,6 @@ struct Stopwatch {
     double wall_seconds() const { return std::chrono::duration<double>(std::chrono::steady_clock::now() - wall).count(); }
     double cpu_seconds() const { return process_cpu_seconds() - cpu; }
 };
-
-// Average number of nodes an upward search settles (and does not stall), as router_bench
-// measures it: 200 random nodes, forward and backward alternately.
-double average_search_space(const ContractionHierarchy& hierarchy) {
-    HierarchySearch search(hierarchy);
-    std::vector<WeightedNode> settled;
-    std::mt19937_64 random(4);
-    for (int k = 0; k < 200; ++k) {
-        const WeightedNode from{static_cast<NodeId>(random() % hierarchy.node_count()), 0};
-        search.upward_search({&from, 1}, k % 2 == 0, settled);
-    }
-    return static_cast<double>(settled.size()) / 200.0;
-}
 
 // Pairs where the hierarchy differs from Dijkstra (0 expected).
 int spot_check(const RoutingGraph& routing_graph, const ContractionHierarchy& hierarchy, Metric metric, int pairs) {
@@ -109,7 +97,7 @@ void run_suite(const std::string& name, const graph::RoadGraph& road_graph, unsi
         std::printf("| %s | %.2f | %.2f | %.0f | %u | %u | %.1f | %.1f | %.0f | %.0f | %d of %d |\n",
                     std::string(metric_name(metric)).c_str(), build_cpu, build_wall, build_cpu / reference_cpu,
                     hierarchy.arc_count(), hierarchy.shortcut_count(), hierarchy.byte_size() / 1048576.0,
-                    average_search_space(hierarchy), matrix_cpu * 1e3, matrix_wall * 1e3, differences, pairs);
+                    bench::average_search_space(hierarchy), matrix_cpu * 1e3, matrix_wall * 1e3, differences, pairs);
     }
     std::printf("\none-to-all Dijkstra (reference): %.1f ms CPU; peak memory so far: %.0f MiB\n\n", reference_cpu * 1e3,
                 bench::peak_memory_mib());
