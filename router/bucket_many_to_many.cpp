@@ -5,8 +5,7 @@
 //
 // Each thread keeps one search workspace for both phases, so the label pages a search touches
 // are faulted in once (on a million-junction region every workspace is tens of megabytes of
-// lazily zeroed memory). A per-direction copy of the arcs was tried and measured slower: the
-// copy cost more than the leaner scans saved (router_bench --synth 1000000).
+// lazily zeroed memory). Buckets are indexed by rank, like the searches.
 #include "router/hierarchy_query.hpp"
 
 #include "router/weight_buffer.hpp"
@@ -67,9 +66,9 @@ std::vector<PackedWeight> hierarchy_many_to_many(const ContractionHierarchy& hie
     });
     std::vector<std::uint32_t> first_entry(std::size_t{node_count} + 1, 0);
     for (const auto& list : reached) {
-        for (const WeightedNode& entry : list) ++first_entry[entry.node + 1];
+        for (const WeightedNode& entry : list) ++first_entry[entry.node + 1];   // entry.node: a rank
     }
-    for (std::uint32_t node = 0; node < node_count; ++node) first_entry[node + 1] += first_entry[node];
+    for (std::uint32_t rank = 0; rank < node_count; ++rank) first_entry[rank + 1] += first_entry[rank];
     std::vector<BucketEntry> buckets(first_entry.back());
     {
         std::vector<std::uint32_t> fill(first_entry.begin(), first_entry.end() - 1);

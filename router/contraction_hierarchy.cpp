@@ -2,10 +2,12 @@
 #include "router/contraction_hierarchy.hpp"
 
 #include "router/contraction_rounds.hpp"
+#include "router/rank_layout.hpp"
 
 #include <algorithm>
 #include <cstring>
 #include <stdexcept>
+#include <string_view>
 
 namespace ringroad::router {
 
@@ -16,14 +18,17 @@ struct HierarchyHeader {
     std::uint32_t layout_version;
     std::uint32_t metric;
     std::uint32_t node_count;
-    std::uint32_t arc_count;
+    std::uint32_t climbing_arc_count;
+    std::uint32_t descending_arc_count;
+    std::uint32_t reserved;
     std::uint64_t routing_graph_fingerprint;
 };
-static_assert(sizeof(HierarchyHeader) == 24);
-constexpr std::uint32_t kHierarchyLayoutVersion = 1;
+static_assert(sizeof(HierarchyHeader) == 32);
+// 2: nodes numbered by rank, climbing and descending arcs apart (1: mixed arcs per routing node).
+constexpr std::uint32_t kHierarchyLayoutVersion = 2;
 
-std::string section_tag(Metric metric, const char* part) {
-    return std::string(metric == Metric::time ? "ch.t." : "ch.d.") + part;
+std::string section_tag(Metric metric, std::string_view part) {
+    return std::string(metric == Metric::time ? "ch.t." : "ch.d.").append(part);
 }
 
 template <typename T>
@@ -44,23 +49,50 @@ bool view_as(std::span<const std::byte> bytes, std::span<const T>& out) {
     return true;
 }
 
+// The views of a mapped arc direction, checked: offsets ascend and stay in range, every arc
+// leads to a higher rank, every middle rank is lower than both ends.
+bool view_arcs(const graph::RoadGraph& road_graph, Metric metric, const char* direction, std::uint32_t node_count,
+               std::uint32_t arc_count, RankedArcViews& out) {
+    const std::string prefix = std::string(direction) + ".";
+    if (!view_as(road_graph.section(section_tag(metric, prefix + "first")), out.first) ||
+        !view_as(road_graph.section(section_tag(metric, prefix + "arcs")), out.arcs) ||
+        !view_as(road_graph.section(section_tag(metric, prefix + "mid")), out.middle)) {
+        return false;
+    }
+    if (out.first.size() != std::size_t{node_count} + 1 || out.arcs.size() != arc_count ||
+        out.middle.size() != arc_count || out.first.front() != 0 || out.first.back() != arc_count) {
+        return false;
+    }
+    for (std::uint32_t rank = 0; rank < node_count; ++rank) {
+        if (out.first[rank] > out.first[rank + 1]) return false;
+        for (std::uint32_t i = out.first[rank]; i < out.first[rank + 1]; ++i) {
+            if (out.arcs[i].other <= rank || out.arcs[i].other >= node_count) return false;
+            if (out.middle[i] != kNoNode && out.middle[i] >= rank) return false;
+        }
+    }
+    return true;
+}
+
+RankedArcViews views_of(const RankedArcArrays& arrays) { return {arrays.first, arrays.arcs, arrays.middle}; }
+
 } // namespace
 
 struct OwnedHierarchyStorage {
-    ContractedGraph built;
+    RankLayout built;
     graph::RoadGraph mapped_graph;   // keeps mapped sections alive when viewing a file
 };
 
 ContractionHierarchy ContractionHierarchy::build(const RoutingGraph& routing_graph, Metric metric, Progress* progress,
                                                  unsigned threads) {
     auto storage = std::make_shared<OwnedHierarchyStorage>();
-    storage->built = contract_in_rounds(routing_graph, metric, threads, progress);
+    storage->built = arrange_by_rank(contract_in_rounds(routing_graph, metric, threads, progress));
     ContractionHierarchy hierarchy;
     hierarchy.metric_ = metric;
     hierarchy.fingerprint_ = routing_graph.fingerprint();
     hierarchy.rank_ = storage->built.rank;
-    hierarchy.first_arc_ = storage->built.first_arc;
-    hierarchy.arcs_ = storage->built.arcs;
+    hierarchy.node_at_ = storage->built.node_at;
+    hierarchy.climbing_ = views_of(storage->built.climbing);
+    hierarchy.descending_ = views_of(storage->built.descending);
     hierarchy.storage_ = storage;
     return hierarchy;
 }
@@ -70,88 +102,110 @@ std::optional<ContractionHierarchy> ContractionHierarchy::from_sections(const gr
                                                                         Metric metric) {
     std::span<const HierarchyHeader> header;
     std::span<const std::uint32_t> rank;
-    std::span<const std::uint32_t> first_arc;
-    std::span<const HierarchyArc> arcs;
+    std::span<const NodeId> node_at;
     if (!view_as(road_graph.section(section_tag(metric, "header")), header) || header.size() != 1) return std::nullopt;
-    if (!view_as(road_graph.section(section_tag(metric, "rank")), rank)) return std::nullopt;
-    if (!view_as(road_graph.section(section_tag(metric, "first")), first_arc)) return std::nullopt;
-    if (!view_as(road_graph.section(section_tag(metric, "arcs")), arcs)) return std::nullopt;
     const HierarchyHeader& head = header[0];
     const std::uint32_t n = routing_graph.node_count();
     if (head.layout_version != kHierarchyLayoutVersion || head.metric != static_cast<std::uint32_t>(metric) ||
-        head.node_count != n || head.routing_graph_fingerprint != routing_graph.fingerprint() ||
-        rank.size() != n || first_arc.size() != std::size_t{n} + 1 || arcs.size() != head.arc_count ||
-        first_arc.back() != head.arc_count) {
+        head.node_count != n || head.routing_graph_fingerprint != routing_graph.fingerprint()) {
         return std::nullopt;
     }
-    for (std::uint32_t node = 0; node < n; ++node) {
-        if (first_arc[node] > first_arc[node + 1]) return std::nullopt;
+    if (!view_as(road_graph.section(section_tag(metric, "rank")), rank) || rank.size() != n) return std::nullopt;
+    if (!view_as(road_graph.section(section_tag(metric, "node")), node_at) || node_at.size() != n) return std::nullopt;
+    for (std::uint32_t r = 0; r < n; ++r) {
+        if (node_at[r] >= n || rank[node_at[r]] != r) return std::nullopt;   // not inverse permutations
     }
-    for (const HierarchyArc& arc : arcs) {
-        if (arc.higher_node >= n || (arc.middle_node != kNoNode && arc.middle_node >= n)) return std::nullopt;
+    ContractionHierarchy hierarchy;
+    if (!view_arcs(road_graph, metric, "up", n, head.climbing_arc_count, hierarchy.climbing_) ||
+        !view_arcs(road_graph, metric, "down", n, head.descending_arc_count, hierarchy.descending_)) {
+        return std::nullopt;
     }
     auto storage = std::make_shared<OwnedHierarchyStorage>();
     storage->mapped_graph = road_graph;
-    ContractionHierarchy hierarchy;
     hierarchy.metric_ = metric;
     hierarchy.fingerprint_ = head.routing_graph_fingerprint;
     hierarchy.rank_ = rank;
-    hierarchy.first_arc_ = first_arc;
-    hierarchy.arcs_ = arcs;
+    hierarchy.node_at_ = node_at;
     hierarchy.storage_ = storage;
     return hierarchy;
 }
 
 std::vector<graph::ExtraSection> ContractionHierarchy::to_sections() const {
-    const HierarchyHeader header{kHierarchyLayoutVersion, static_cast<std::uint32_t>(metric_), node_count(),
-                                 arc_count(), fingerprint_};
+    const HierarchyHeader header{kHierarchyLayoutVersion,
+                                 static_cast<std::uint32_t>(metric_),
+                                 node_count(),
+                                 static_cast<std::uint32_t>(climbing_.arcs.size()),
+                                 static_cast<std::uint32_t>(descending_.arcs.size()),
+                                 0,
+                                 fingerprint_};
     std::vector<graph::ExtraSection> sections;
     sections.push_back(make_section(section_tag(metric_, "header"), std::span<const HierarchyHeader>(&header, 1)));
     sections.push_back(make_section(section_tag(metric_, "rank"), rank_));
-    sections.push_back(make_section(section_tag(metric_, "first"), first_arc_));
-    sections.push_back(make_section(section_tag(metric_, "arcs"), arcs_));
+    sections.push_back(make_section(section_tag(metric_, "node"), node_at_));
+    for (const auto& [name, views] : {std::pair{"up.", &climbing_}, std::pair{"down.", &descending_}}) {
+        const std::string prefix = name;
+        sections.push_back(make_section(section_tag(metric_, prefix + "first"), views->first));
+        sections.push_back(make_section(section_tag(metric_, prefix + "arcs"), views->arcs));
+        sections.push_back(make_section(section_tag(metric_, prefix + "mid"), views->middle));
+    }
     return sections;
 }
 
 std::uint32_t ContractionHierarchy::shortcut_count() const noexcept {
     std::uint32_t count = 0;
-    for (const HierarchyArc& arc : arcs_) count += arc.middle_node != kNoNode;
+    for (const RankedArcViews* views : {&climbing_, &descending_}) {
+        for (const std::uint32_t middle : views->middle) count += middle != kNoNode;
+    }
     return count;
 }
 
 std::size_t ContractionHierarchy::byte_size() const noexcept {
-    return rank_.size_bytes() + first_arc_.size_bytes() + arcs_.size_bytes() + sizeof(HierarchyHeader);
+    std::size_t bytes = rank_.size_bytes() + node_at_.size_bytes() + sizeof(HierarchyHeader);
+    for (const RankedArcViews* views : {&climbing_, &descending_}) {
+        bytes += views->first.size_bytes() + views->arcs.size_bytes() + views->middle.size_bytes();
+    }
+    return bytes;
 }
 
-void ContractionHierarchy::unpack_arc(NodeId from, NodeId to, PackedWeight weight, std::vector<NodeId>& out) const {
-    // The arc is stored at its lower end; find it by direction and weight.
-    const bool upwards = rank_[from] < rank_[to];
-    const NodeId lower = upwards ? from : to;
-    const NodeId higher = upwards ? to : from;
-    const std::uint32_t direction = upwards ? kArcForward : kArcBackward;
-    for (const HierarchyArc& arc : upward_arcs(lower)) {
-        if (arc.higher_node != higher || !(arc.directions & direction) || arc.weight != weight) continue;
-        if (arc.middle_node == kNoNode) {
-            out.push_back(to);
+namespace {
+
+// The index of the arc `lower -> higher` (climbing) or `higher -> lower` (descending) of the given
+// weight among `lower`'s arcs, or none.
+std::optional<std::uint32_t> find_arc(const RankedArcViews& views, std::uint32_t lower, std::uint32_t higher,
+                                      PackedWeight weight) {
+    for (std::uint32_t i = views.first[lower]; i < views.first[lower + 1]; ++i) {
+        if (views.arcs[i].other == higher && views.arcs[i].weight == weight) return i;
+    }
+    return std::nullopt;
+}
+
+} // namespace
+
+void ContractionHierarchy::unpack_arc(std::uint32_t from, std::uint32_t to, PackedWeight weight,
+                                      std::vector<NodeId>& out) const {
+    // The arc is stored at its lower end: climbing when it leads upwards, else descending.
+    const bool upwards = from < to;
+    const RankedArcViews& views = upwards ? climbing_ : descending_;
+    const std::optional<std::uint32_t> arc = find_arc(views, upwards ? from : to, upwards ? to : from, weight);
+    if (!arc) throw std::logic_error("contraction hierarchy: cannot unpack an arc (corrupt hierarchy)");
+    const std::uint32_t middle = views.middle[*arc];
+    if (middle == kNoNode) {
+        out.push_back(node_at_[to]);
+        return;
+    }
+    // Both halves are stored at the middle rank, lower than both ends: from -> middle descends
+    // into it, middle -> to climbs out of it. Several pairs may share the ends; take one whose
+    // weights add up.
+    for (std::uint32_t i = descending_.first[middle]; i < descending_.first[middle + 1]; ++i) {
+        const RankedArc& first_half = descending_.arcs[i];
+        if (first_half.other != from || first_half.weight > weight) continue;
+        if (find_arc(climbing_, middle, to, weight - first_half.weight)) {
+            unpack_arc(from, middle, first_half.weight, out);
+            unpack_arc(middle, to, weight - first_half.weight, out);
             return;
         }
-        // from -> middle is stored at middle (lower than both) as an arc towards `from`.
-        const NodeId middle = arc.middle_node;
-        for (const HierarchyArc& first_half : upward_arcs(middle)) {
-            if (first_half.higher_node != from || !(first_half.directions & kArcBackward)) continue;
-            if (first_half.weight > weight) continue;
-            const PackedWeight second_weight = weight - first_half.weight;
-            for (const HierarchyArc& second_half : upward_arcs(middle)) {
-                if (second_half.higher_node == to && (second_half.directions & kArcForward) &&
-                    second_half.weight == second_weight) {
-                    unpack_arc(from, middle, first_half.weight, out);
-                    unpack_arc(middle, to, second_weight, out);
-                    return;
-                }
-            }
-        }
     }
-    throw std::logic_error("contraction hierarchy: cannot unpack an arc (corrupt hierarchy)");
+    throw std::logic_error("contraction hierarchy: cannot unpack a shortcut (corrupt hierarchy)");
 }
 
 std::vector<graph::ExtraSection> build_hierarchy_sections(const graph::RoadGraph& road_graph, RestrictionPolicy policy,

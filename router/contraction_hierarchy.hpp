@@ -9,8 +9,11 @@
 //    result whatever the thread count (router/contraction_rounds.hpp); a shortcut u -> w through
 //    v is added only when a bounded witness search finds no path u -> w avoiding v at most as
 //    cheap. Shortcuts remember their middle node for unpacking.
-//  * Storage: upward arcs in an adjacency array per node (each arc usable forwards, backwards or
-//    both), ranks and a header; written as graph::ExtraSection arrays (layout in
+//  * Storage, laid out for the searches: nodes are numbered by rank, so the few thousand nodes
+//    near the top that every search visits sit together in memory; each rank has its climbing
+//    arcs (to higher ranks) and its descending arcs (from higher ranks) in two adjacency arrays
+//    of 12-byte records, so a search reads only arcs of its own direction. Middle nodes, needed
+//    only to unpack a path, are kept apart. Written as graph::ExtraSection arrays (layout in
 //    router/HIERARCHY.md) and mapped back without parsing.
 //  * One hierarchy per metric: the weights are the packed (primary, secondary) pairs.
 
@@ -28,7 +31,8 @@ namespace ringroad { class Progress; }
 
 namespace ringroad::router {
 
-// One upward arc stored at its lower node. Layout is part of the file format (HIERARCHY.md).
+// One upward arc as the contraction produces it (router/contraction_rounds.hpp), stored at its
+// lower node, usable forwards, backwards or both.
 struct HierarchyArc {
     NodeId higher_node;
     NodeId middle_node;          // kNoNode for an original turn arc, else the shortcut's middle
@@ -39,6 +43,25 @@ struct HierarchyArc {
 static_assert(sizeof(HierarchyArc) == 24);
 inline constexpr std::uint32_t kArcForward = 1;
 inline constexpr std::uint32_t kArcBackward = 2;
+
+// One arc of the stored hierarchy, kept at its lower end: `other` is the rank of the higher end.
+// 12 bytes (weight at offset 4): a search reads these records and little else. Layout is part of
+// the file format (HIERARCHY.md).
+#pragma pack(push, 4)
+struct RankedArc {
+    std::uint32_t other;
+    PackedWeight weight;
+};
+#pragma pack(pop)
+static_assert(sizeof(RankedArc) == 12);
+
+// The arcs at each rank in one direction, as an adjacency array; middle[i] is arc i's middle
+// rank when it is a shortcut, kNoNode for an original turn arc.
+struct RankedArcViews {
+    std::span<const std::uint32_t> first;   // rank r's arcs are [first[r], first[r + 1])
+    std::span<const RankedArc> arcs;
+    std::span<const std::uint32_t> middle;
+};
 
 class ContractionHierarchy {
 public:
@@ -58,26 +81,37 @@ public:
 
     Metric metric() const noexcept { return metric_; }
     std::uint32_t node_count() const noexcept { return static_cast<std::uint32_t>(rank_.size()); }
-    std::uint32_t arc_count() const noexcept { return static_cast<std::uint32_t>(arcs_.size()); }
+    // Directed upward arcs (climbing + descending); an arc usable both ways counts twice.
+    std::uint32_t arc_count() const noexcept {
+        return static_cast<std::uint32_t>(climbing_.arcs.size() + descending_.arcs.size());
+    }
     std::uint32_t shortcut_count() const noexcept;
     std::size_t byte_size() const noexcept;
 
+    // Searches number nodes by rank (0 = contracted first); these translate.
     std::uint32_t rank(NodeId node) const { return rank_[node]; }
-    std::span<const HierarchyArc> upward_arcs(NodeId node) const {
-        return arcs_.subspan(first_arc_[node], first_arc_[node + 1] - first_arc_[node]);
-    }
+    NodeId node_at(std::uint32_t rank) const { return node_at_[rank]; }
+    // Arcs rank -> higher rank (driving from `rank` upwards), and higher rank -> rank (driving
+    // down into `rank`), both stored at `rank` with `other` the higher end.
+    std::span<const RankedArc> climbing_arcs(std::uint32_t rank) const { return arcs_at(climbing_, rank); }
+    std::span<const RankedArc> descending_arcs(std::uint32_t rank) const { return arcs_at(descending_, rank); }
 
-    // The original routing nodes an arc stands for, appended in driving order after `from`
-    // (the lower->higher or higher->lower traversal of the arc, `from` excluded).
-    void unpack_arc(NodeId from, NodeId to, PackedWeight weight, std::vector<NodeId>& out) const;
+    // The routing nodes the arc between ranks `from` and `to` (either direction) stands for,
+    // appended in driving order after `from` (excluded).
+    void unpack_arc(std::uint32_t from, std::uint32_t to, PackedWeight weight, std::vector<NodeId>& out) const;
 
 private:
     Metric metric_ = Metric::time;
     std::uint64_t fingerprint_ = 0;
-    std::shared_ptr<const void> storage_;   // owns the arrays when built in memory
+    std::shared_ptr<const void> storage_;   // owns the arrays (built in memory or mapped)
     std::span<const std::uint32_t> rank_;
-    std::span<const std::uint32_t> first_arc_;
-    std::span<const HierarchyArc> arcs_;
+    std::span<const NodeId> node_at_;
+    RankedArcViews climbing_;
+    RankedArcViews descending_;
+
+    static std::span<const RankedArc> arcs_at(const RankedArcViews& views, std::uint32_t rank) {
+        return views.arcs.subspan(views.first[rank], views.first[rank + 1] - views.first[rank]);
+    }
 };
 
 // Builds the hierarchies (time and distance) for `ringroad build`; the caller attaches them with

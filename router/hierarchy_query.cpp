@@ -8,7 +8,7 @@
 namespace ringroad::router {
 
 namespace {
-using HeapEntry = std::pair<PackedWeight, NodeId>;
+using HeapEntry = std::pair<PackedWeight, std::uint32_t>;   // (weight, rank)
 constexpr auto kHeapOrder = std::greater<HeapEntry>();
 }
 
@@ -32,22 +32,23 @@ void HierarchySearch::start(Side& side, std::span<const WeightedNode> starts) {
     }
     side.heap.clear();
     for (const WeightedNode& start : starts) {
-        if (start.weight < side.label(start.node)) {
-            side.labels[start.node] = {start.weight, side.query, kNoNode};
-            side.heap.push_back({start.weight, start.node});
+        const std::uint32_t rank = hierarchy_->rank(start.node);
+        if (start.weight < side.label(rank)) {
+            side.labels[rank] = {start.weight, side.query, kNoNode};
+            side.heap.push_back({start.weight, rank});
             std::push_heap(side.heap.begin(), side.heap.end(), kHeapOrder);
         }
     }
 }
 
-bool HierarchySearch::pop(Side& side, NodeId& node, PackedWeight& weight) {
+bool HierarchySearch::pop(Side& side, std::uint32_t& rank, PackedWeight& weight) {
     while (!side.heap.empty()) {
         std::pop_heap(side.heap.begin(), side.heap.end(), kHeapOrder);
         const HeapEntry entry = side.heap.back();
         side.heap.pop_back();
         if (entry.first != side.label(entry.second)) continue;   // superseded
         weight = entry.first;
-        node = entry.second;
+        rank = entry.second;
         return true;
     }
     return false;
@@ -55,24 +56,21 @@ bool HierarchySearch::pop(Side& side, NodeId& node, PackedWeight& weight) {
 
 // Stall-on-demand: a higher node reached more cheaply proves this label is not a shortest
 // distance, so the search need not continue from it.
-bool HierarchySearch::stalled(const Side& side, NodeId node, PackedWeight weight) const {
-    const std::uint32_t inbound = side.forward ? kArcBackward : kArcForward;
-    for (const HierarchyArc& arc : hierarchy_->upward_arcs(node)) {
-        if (!(arc.directions & inbound)) continue;
-        const PackedWeight higher = side.label(arc.higher_node);
+bool HierarchySearch::stalled(const Side& side, std::uint32_t rank, PackedWeight weight) const {
+    // Arcs from higher nodes into this one: for a backward search, the ones it climbs.
+    for (const RankedArc& arc : side.forward ? hierarchy_->descending_arcs(rank) : hierarchy_->climbing_arcs(rank)) {
+        const PackedWeight higher = side.label(arc.other);
         if (higher != kUnreachableWeight && higher + arc.weight < weight) return true;
     }
     return false;
 }
 
-void HierarchySearch::relax(Side& side, NodeId node, PackedWeight weight) {
-    const std::uint32_t outbound = side.forward ? kArcForward : kArcBackward;
-    for (const HierarchyArc& arc : hierarchy_->upward_arcs(node)) {
-        if (!(arc.directions & outbound)) continue;
+void HierarchySearch::relax(Side& side, std::uint32_t rank, PackedWeight weight) {
+    for (const RankedArc& arc : side.forward ? hierarchy_->climbing_arcs(rank) : hierarchy_->descending_arcs(rank)) {
         const PackedWeight candidate = weight + arc.weight;
-        if (candidate < side.label(arc.higher_node)) {
-            side.labels[arc.higher_node] = {candidate, side.query, node};
-            side.heap.push_back({candidate, arc.higher_node});
+        if (candidate < side.label(arc.other)) {
+            side.labels[arc.other] = {candidate, side.query, rank};
+            side.heap.push_back({candidate, arc.other});
             std::push_heap(side.heap.begin(), side.heap.end(), kHeapOrder);
         }
     }
@@ -83,7 +81,7 @@ PackedWeight HierarchySearch::shortest(std::span<const WeightedNode> starts, std
     start(forward_, starts);
     start(backward_, ends);
     PackedWeight best = kUnreachableWeight;
-    NodeId meeting = kNoNode;
+    std::uint32_t meeting = kNoNode;
     for (;;) {
         const PackedWeight forward_min = forward_.heap.empty() ? kUnreachableWeight : forward_.heap.front().first;
         const PackedWeight backward_min = backward_.heap.empty() ? kUnreachableWeight : backward_.heap.front().first;
@@ -92,35 +90,37 @@ PackedWeight HierarchySearch::shortest(std::span<const WeightedNode> starts, std
         if (!forward_open && !backward_open) break;
         Side& side = forward_open && (!backward_open || forward_min <= backward_min) ? forward_ : backward_;
         const Side& other = &side == &forward_ ? backward_ : forward_;
-        NodeId node = kNoNode;
+        std::uint32_t rank = kNoNode;
         PackedWeight weight = 0;
-        if (!pop(side, node, weight)) continue;
-        const PackedWeight other_label = other.label(node);
+        if (!pop(side, rank, weight)) continue;
+        const PackedWeight other_label = other.label(rank);
         if (other_label != kUnreachableWeight && weight + other_label < best) {
             best = weight + other_label;
-            meeting = node;
+            meeting = rank;
         }
-        if (stalled(side, node, weight)) continue;
-        relax(side, node, weight);
+        if (stalled(side, rank, weight)) continue;
+        relax(side, rank, weight);
     }
-    if (path && meeting != kNoNode) {
-        path->clear();
-        std::vector<NodeId> climb{meeting};
-        for (NodeId node = meeting; forward_.labels[node].parent != kNoNode; node = forward_.labels[node].parent) {
-            climb.push_back(forward_.labels[node].parent);
-        }
-        std::reverse(climb.begin(), climb.end());
-        path->push_back(climb.front());
-        for (std::size_t i = 1; i < climb.size(); ++i) {
-            hierarchy_->unpack_arc(climb[i - 1], climb[i],
-                                   forward_.labels[climb[i]].distance - forward_.labels[climb[i - 1]].distance, *path);
-        }
-        for (NodeId node = meeting; backward_.labels[node].parent != kNoNode; node = backward_.labels[node].parent) {
-            const NodeId next = backward_.labels[node].parent;
-            hierarchy_->unpack_arc(node, next, backward_.labels[node].distance - backward_.labels[next].distance, *path);
-        }
-    }
+    if (path && meeting != kNoNode) unpack_path(meeting, *path);
     return best;
+}
+
+void HierarchySearch::unpack_path(std::uint32_t meeting, std::vector<NodeId>& path) const {
+    path.clear();
+    std::vector<std::uint32_t> climb{meeting};
+    for (std::uint32_t rank = meeting; forward_.labels[rank].parent != kNoNode; rank = forward_.labels[rank].parent) {
+        climb.push_back(forward_.labels[rank].parent);
+    }
+    std::reverse(climb.begin(), climb.end());
+    path.push_back(hierarchy_->node_at(climb.front()));
+    for (std::size_t i = 1; i < climb.size(); ++i) {
+        hierarchy_->unpack_arc(climb[i - 1], climb[i],
+                               forward_.labels[climb[i]].distance - forward_.labels[climb[i - 1]].distance, path);
+    }
+    for (std::uint32_t rank = meeting; backward_.labels[rank].parent != kNoNode; rank = backward_.labels[rank].parent) {
+        const std::uint32_t next = backward_.labels[rank].parent;
+        hierarchy_->unpack_arc(rank, next, backward_.labels[rank].distance - backward_.labels[next].distance, path);
+    }
 }
 
 void HierarchySearch::upward_search(std::span<const WeightedNode> starts, bool forward,
@@ -134,12 +134,12 @@ void HierarchySearch::upward_search(std::span<const WeightedNode> starts, bool f
         ~RestoreDirection() { side.forward = true; }   // shortest() expects a forward side
     } restore{side};
     start(side, starts);
-    NodeId node = kNoNode;
+    std::uint32_t rank = kNoNode;
     PackedWeight weight = 0;
-    while (pop(side, node, weight)) {
-        if (stalled(side, node, weight)) continue;
-        settled.push_back({node, weight});
-        relax(side, node, weight);
+    while (pop(side, rank, weight)) {
+        if (stalled(side, rank, weight)) continue;
+        settled.push_back({rank, weight});
+        relax(side, rank, weight);
     }
 }
 

@@ -10,6 +10,8 @@
 
 #include <catch2/catch.hpp>
 
+#include <algorithm>
+#include <cstring>
 #include <random>
 
 using namespace ringroad;
@@ -167,4 +169,35 @@ TEST_CASE("A stored hierarchy survives the .rrg file and is used; a stale one is
         run_dijkstra(routing_graph, Metric::time, {&start, 1}, {}, workspace);
         REQUIRE(search.shortest({&start, 1}, {&end, 1}) == workspace.distance(end.node));
     }
+}
+
+TEST_CASE("A stored hierarchy that fails a check is refused, not searched", "[hierarchy]") {
+    const graph::RoadGraph road_graph = grid(52, 12, 12);
+    const RoutingGraph routing_graph(road_graph, RestrictionPolicy::automatic);
+    const std::vector<graph::ExtraSection> good = ContractionHierarchy::build(routing_graph, Metric::time).to_sections();
+    REQUIRE(ContractionHierarchy::from_sections(graph::attach_sections(road_graph, good), routing_graph, Metric::time));
+    // Each damage, applied alone to a copy of the sections (layout in router/HIERARCHY.md).
+    const auto damaged = [&](const std::string& tag, auto&& damage) {
+        std::vector<graph::ExtraSection> sections = good;
+        const auto section = std::find_if(sections.begin(), sections.end(), [&](const auto& s) { return s.tag == tag; });
+        REQUIRE(section != sections.end());
+        damage(section->bytes);
+        return ContractionHierarchy::from_sections(graph::attach_sections(road_graph, sections), routing_graph,
+                                                   Metric::time);
+    };
+    const auto set_u32 = [](std::vector<std::byte>& bytes, std::size_t offset, std::uint32_t value) {
+        std::memcpy(bytes.data() + offset, &value, sizeof value);
+    };
+    // An older layout version (1: mixed arcs per routing node).
+    CHECK_FALSE(damaged("ch.t.header", [&](auto& bytes) { set_u32(bytes, 0, 1); }));
+    // A climbing arc of rank 0 that leads to rank 0 (not higher): a search could loop on it.
+    CHECK_FALSE(damaged("ch.t.up.arcs", [&](auto& bytes) { set_u32(bytes, 0, 0); }));
+    // A descending arc from a rank past the last node.
+    CHECK_FALSE(damaged("ch.t.down.arcs", [&](auto& bytes) { set_u32(bytes, 0, 0xFFFFFFF0u); }));
+    // rank and node_at no longer inverse permutations: rank 0 names rank 1's node.
+    CHECK_FALSE(damaged("ch.t.node", [&](auto& bytes) { std::memcpy(bytes.data(), bytes.data() + 4, 4); }));
+    // Offsets that go backwards.
+    CHECK_FALSE(damaged("ch.t.up.first", [&](auto& bytes) { set_u32(bytes, 4, 0xFFFFu); }));
+    // A shortcut whose middle is not lower than its ends.
+    CHECK_FALSE(damaged("ch.t.down.mid", [&](auto& bytes) { set_u32(bytes, 0, 0xFFFFFFF0u); }));
 }
