@@ -4,54 +4,55 @@
 #include <cstdlib>
 #include <functional>
 #include <new>
+#include <tuple>
 
 namespace ringroad::router {
 
-namespace {
-using HeapEntry = std::pair<PackedWeight, std::uint32_t>;   // (weight, rank)
-constexpr auto kHeapOrder = std::greater<HeapEntry>();
-}
-
-void HierarchySearch::FreeLabels::operator()(Label* labels) const noexcept { std::free(labels); }
+void HierarchySearch::FreeMemory::operator()(void* memory) const noexcept { std::free(memory); }
 
 HierarchySearch::HierarchySearch(const ContractionHierarchy& hierarchy) : hierarchy_(&hierarchy) {
     backward_.forward = false;
 }
 
+namespace {
+
+template <typename T, typename Deleter>
+void allocate_zeroed(std::unique_ptr<T[], Deleter>& array, std::size_t count) {
+    array.reset(static_cast<T*>(std::calloc(std::max<std::size_t>(count, 1), sizeof(T))));
+    if (!array) throw std::bad_alloc();
+}
+
+} // namespace
+
 void HierarchySearch::start(Side& side, std::span<const WeightedNode> starts) {
-    const std::size_t node_count = hierarchy_->node_count();
-    // Allocated on first use: a many-to-many worker searches in one direction only.
-    if (!side.labels) {
-        side.labels.reset(static_cast<Label*>(std::calloc(std::max<std::size_t>(node_count, 1), sizeof(Label))));
-        if (!side.labels) throw std::bad_alloc();
-        side.query = 0;
+    // Allocated on first use: a many-to-many worker uses one side only.
+    if (!side.inverted_distance) {
+        allocate_zeroed(side.inverted_distance, hierarchy_->node_count());
+        allocate_zeroed(side.links, hierarchy_->node_count());
     }
-    if (++side.query == 0) {   // the stamps wrapped around: forget every label
-        std::fill(side.labels.get(), side.labels.get() + node_count, Label{});
-        side.query = 1;
-    }
+    for (const std::uint32_t rank : side.reached) side.inverted_distance[rank] = 0;
+    side.reached.clear();
     side.heap.clear();
-    for (const WeightedNode& start : starts) {
-        const std::uint32_t rank = hierarchy_->rank(start.node);
-        if (start.weight < side.label(rank)) {
-            side.labels[rank] = {start.weight, side.query, kNoNode};
-            side.heap.push_back({start.weight, rank});
-            std::push_heap(side.heap.begin(), side.heap.end(), kHeapOrder);
-        }
+    for (const WeightedNode& start : starts) reach(side, hierarchy_->rank(start.node), start.weight, kNoNode);
+}
+
+void HierarchySearch::reach(Side& side, std::uint32_t rank, PackedWeight weight, std::uint32_t parent) {
+    PackedWeight& inverted = side.inverted_distance[rank];
+    if (inverted == 0) {
+        side.reached.push_back(rank);
+        side.links[rank].heap_slot = RankHeap::kNotQueued;
+    } else if (weight >= ~inverted) {
+        return;
     }
+    inverted = ~weight;
+    side.links[rank].parent = parent;
+    side.heap.push_or_decrease(rank, weight, side.slots());
 }
 
 bool HierarchySearch::pop(Side& side, std::uint32_t& rank, PackedWeight& weight) {
-    while (!side.heap.empty()) {
-        std::pop_heap(side.heap.begin(), side.heap.end(), kHeapOrder);
-        const HeapEntry entry = side.heap.back();
-        side.heap.pop_back();
-        if (entry.first != side.label(entry.second)) continue;   // superseded
-        weight = entry.first;
-        rank = entry.second;
-        return true;
-    }
-    return false;
+    if (side.heap.empty()) return false;
+    std::tie(weight, rank) = side.heap.pop(side.slots());
+    return true;
 }
 
 // Stall-on-demand: a higher node reached more cheaply proves this label is not a shortest
@@ -67,12 +68,7 @@ bool HierarchySearch::stalled(const Side& side, std::uint32_t rank, PackedWeight
 
 void HierarchySearch::relax(Side& side, std::uint32_t rank, PackedWeight weight) {
     for (const RankedArc& arc : side.forward ? hierarchy_->climbing_arcs(rank) : hierarchy_->descending_arcs(rank)) {
-        const PackedWeight candidate = weight + arc.weight;
-        if (candidate < side.label(arc.other)) {
-            side.labels[arc.other] = {candidate, side.query, rank};
-            side.heap.push_back({candidate, arc.other});
-            std::push_heap(side.heap.begin(), side.heap.end(), kHeapOrder);
-        }
+        reach(side, arc.other, weight + arc.weight, rank);
     }
 }
 
@@ -83,8 +79,8 @@ PackedWeight HierarchySearch::shortest(std::span<const WeightedNode> starts, std
     PackedWeight best = kUnreachableWeight;
     std::uint32_t meeting = kNoNode;
     for (;;) {
-        const PackedWeight forward_min = forward_.heap.empty() ? kUnreachableWeight : forward_.heap.front().first;
-        const PackedWeight backward_min = backward_.heap.empty() ? kUnreachableWeight : backward_.heap.front().first;
+        const PackedWeight forward_min = forward_.heap.empty() ? kUnreachableWeight : forward_.heap.min_weight();
+        const PackedWeight backward_min = backward_.heap.empty() ? kUnreachableWeight : backward_.heap.min_weight();
         const bool forward_open = forward_min < best;
         const bool backward_open = backward_min < best;
         if (!forward_open && !backward_open) break;
@@ -108,18 +104,18 @@ PackedWeight HierarchySearch::shortest(std::span<const WeightedNode> starts, std
 void HierarchySearch::unpack_path(std::uint32_t meeting, std::vector<NodeId>& path) const {
     path.clear();
     std::vector<std::uint32_t> climb{meeting};
-    for (std::uint32_t rank = meeting; forward_.labels[rank].parent != kNoNode; rank = forward_.labels[rank].parent) {
-        climb.push_back(forward_.labels[rank].parent);
+    for (std::uint32_t rank = meeting; forward_.links[rank].parent != kNoNode; rank = forward_.links[rank].parent) {
+        climb.push_back(forward_.links[rank].parent);
     }
     std::reverse(climb.begin(), climb.end());
     path.push_back(hierarchy_->node_at(climb.front()));
     for (std::size_t i = 1; i < climb.size(); ++i) {
         hierarchy_->unpack_arc(climb[i - 1], climb[i],
-                               forward_.labels[climb[i]].distance - forward_.labels[climb[i - 1]].distance, path);
+                               forward_.label(climb[i]) - forward_.label(climb[i - 1]), path);
     }
-    for (std::uint32_t rank = meeting; backward_.labels[rank].parent != kNoNode; rank = backward_.labels[rank].parent) {
-        const std::uint32_t next = backward_.labels[rank].parent;
-        hierarchy_->unpack_arc(rank, next, backward_.labels[rank].distance - backward_.labels[next].distance, path);
+    for (std::uint32_t rank = meeting; backward_.links[rank].parent != kNoNode; rank = backward_.links[rank].parent) {
+        const std::uint32_t next = backward_.links[rank].parent;
+        hierarchy_->unpack_arc(rank, next, backward_.label(rank) - backward_.label(next), path);
     }
 }
 

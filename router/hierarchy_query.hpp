@@ -4,11 +4,12 @@
 // target leaves (target, distance) in a bucket at every node it settles; a forward upward search
 // from each source scans the buckets of the nodes it settles. Starts and ends are sets of
 // weighted nodes (a stop mid-edge joins the graph at up to two nodes).
-// A HierarchySearch is a reusable workspace (stamped labels); one per thread. It works on ranks
+// A HierarchySearch is a reusable workspace (labels reset rank by rank); one per thread. It works on ranks
 // (ContractionHierarchy numbers nodes by rank) and speaks routing nodes at its interface.
 
 #include "router/contraction_hierarchy.hpp"
 #include "router/dijkstra.hpp"
+#include "router/rank_heap.hpp"
 
 #include <cstdint>
 #include <memory>
@@ -34,32 +35,39 @@ public:
                        std::vector<WeightedNode>& settled);
 
 private:
-    // One label per rank in a single array, so a relaxation touches one cache line, not three.
-    struct Label {
-        PackedWeight distance;
-        std::uint32_t stamp;    // the label is valid when stamp == the side's query number
-        std::uint32_t parent;   // rank
+    // Per rank, in two arrays: the distances, which stall tests and relaxations read by the
+    // dozen for every label they change, densely (8 bytes a rank, so the top of the hierarchy
+    // that every search ends in fits in a few cache pages); and the links, touched only when a
+    // label changes or a path is unpacked.
+    // Both calloc'ed: a large zeroed allocation comes from fresh pages that the kernel zeroes
+    // only when touched, and a search touches a few thousand ranks, so a search on a region of
+    // millions of nodes costs nothing up front. Distances are therefore stored inverted
+    // (~distance), so that zero reads as unreached; a search resets the ranks the previous one
+    // reached instead of the whole array.
+    struct Link {
+        std::uint32_t parent;      // rank
+        std::uint32_t heap_slot;   // position in the side's heap, or RankHeap::kNotQueued
     };
-    // calloc'ed: a large zeroed allocation comes from fresh pages that the kernel zeroes only
-    // when touched, and a search touches a few thousand nodes, so setting up a search on a
-    // region of millions of nodes costs nothing up front (value-initialising a vector wrote
-    // 16 bytes per node, tens of megabytes, per search object).
-    struct FreeLabels {
-        void operator()(Label* labels) const noexcept;
+    struct FreeMemory {
+        void operator()(void* memory) const noexcept;
     };
     struct Side {
-        std::unique_ptr<Label[], FreeLabels> labels;
-        std::vector<std::pair<PackedWeight, std::uint32_t>> heap;   // (weight, rank); lazy deletion
-        std::uint32_t query = 0;
+        std::unique_ptr<PackedWeight[], FreeMemory> inverted_distance;
+        std::unique_ptr<Link[], FreeMemory> links;
+        std::vector<std::uint32_t> reached;   // ranks labelled since the last start
+        RankHeap heap;
         bool forward = true;
 
-        PackedWeight label(std::uint32_t rank) const {
-            return labels[rank].stamp == query ? labels[rank].distance : kUnreachableWeight;
+        PackedWeight label(std::uint32_t rank) const { return ~inverted_distance[rank]; }
+        auto slots() {
+            return [this](std::uint32_t rank) -> std::uint32_t& { return links[rank].heap_slot; };
         }
     };
     void start(Side& side, std::span<const WeightedNode> starts);
     bool stalled(const Side& side, std::uint32_t rank, PackedWeight weight) const;
     void relax(Side& side, std::uint32_t rank, PackedWeight weight);
+    // Labels `rank` with `weight` via `parent` and queues it, if that improves its label.
+    void reach(Side& side, std::uint32_t rank, PackedWeight weight, std::uint32_t parent);
     bool pop(Side& side, std::uint32_t& rank, PackedWeight& weight);
     // The routing nodes of the path through `meeting`, from the two sides' parent ranks.
     void unpack_path(std::uint32_t meeting, std::vector<NodeId>& path) const;
