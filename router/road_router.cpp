@@ -192,6 +192,10 @@ RoadRouter::~RoadRouter() = default;
 const graph::RoadGraph& RoadRouter::road_graph() const noexcept { return state_->road_graph; }
 const RoutingGraph& RoadRouter::routing_graph() const noexcept { return state_->routing_graph; }
 bool RoadRouter::has_stored_hierarchy(Metric metric) const { return state_->stored[static_cast<std::size_t>(metric)]; }
+
+bool RoadRouter::has_unusable_hierarchy(Metric metric) const {
+    return has_hierarchy_sections(state_->road_graph, metric) && !has_stored_hierarchy(metric);
+}
 double RoadRouter::top_speed_meters_per_second() const noexcept { return state_->top_speed; }
 
 SnappedStop RoadRouter::snap(std::string_view stop_id, double lat, double lon) const {

@@ -14,6 +14,7 @@
 #include "common/safety_notice.hpp"
 #include "daemon/cli/commands.hpp"
 #include "daemon/cli/output.hpp"
+#include "daemon/cli/unusable_hierarchy_note.hpp"
 #include "daemon/cli/snap_radius_option.hpp"
 #include "graph/graph_file.hpp"
 #include "router/road_router.hpp"
@@ -145,6 +146,7 @@ void run_matrix(const MatrixArguments& arguments) {
     options.snap_radius_meters = arguments.snap_radius;
     options.threads = arguments.threads;
     const router::RoadRouter road_router(graph::load_road_graph(arguments.region), options);
+    note_unusable_hierarchy(road_router, arguments.region, *metric, *engine);
     const std::vector<router::SnappedStop> snapped = road_router.snap_stops(stops);
     const router::TravelMatrix matrix = road_router.matrix(snapped, *metric, *engine);
     const std::string engine_used =

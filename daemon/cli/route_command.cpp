@@ -10,6 +10,7 @@
 #include "common/safety_notice.hpp"
 #include "daemon/cli/commands.hpp"
 #include "daemon/cli/output.hpp"
+#include "daemon/cli/unusable_hierarchy_note.hpp"
 #include "daemon/cli/snap_radius_option.hpp"
 #include "graph/graph_file.hpp"
 #include "router/road_router.hpp"
@@ -129,6 +130,7 @@ void run_route(const RouteArguments& arguments) {
     router::RouterOptions options;
     options.snap_radius_meters = arguments.snap_radius;
     const router::RoadRouter road_router(graph::load_road_graph(arguments.region), options);
+    note_unusable_hierarchy(road_router, arguments.region, metric, engine);
     const router::SnappedStop start = road_router.snap("from", from.lat, from.lon);
     const router::SnappedStop end = road_router.snap("to", to.lat, to.lon);
     const std::optional<router::RoutePath> path = road_router.route(start, end, metric, engine);

@@ -12,6 +12,7 @@
 #include "common/safety_notice.hpp"
 #include "daemon/cli/commands.hpp"
 #include "daemon/cli/output.hpp"
+#include "daemon/cli/unusable_hierarchy_note.hpp"
 #include "daemon/cli/snap_radius_option.hpp"
 #include "graph/graph_file.hpp"
 #include "router/planners/matrix_csv.hpp"
@@ -75,6 +76,7 @@ TourInput load_input(const TourOptions& options) {
     router::RouterOptions router_options;
     router_options.snap_radius_meters = options.snap_radius;
     input.router = std::make_unique<router::RoadRouter>(graph::load_road_graph(options.region), router_options);
+    note_unusable_hierarchy(*input.router, options.region, router::Metric::time, router::Engine::automatic);
     input.snapped = input.router->snap_stops(input.stops);
     input.travel = input.router->matrix(input.snapped, router::Metric::time);
     input.matrix.costs = input.travel.seconds_matrix();

@@ -9,6 +9,7 @@
 #include <catch2/catch.hpp>
 #include <nlohmann/json.hpp>
 
+#include <cstring>
 #include <sstream>
 
 using namespace ringroad;
@@ -153,4 +154,33 @@ TEST_CASE("matrix refuses bad input with one line, exit 1, and no output file", 
     test::write_file(folder + "/stops.csv", "id,lat,lon\na,18.05,-141.0\nfar,18.0575,-141.0\n");
     result = run_ringroad({"matrix", town().region, "--stops", folder + "/stops.csv", "--snap-radius", "1000"});
     REQUIRE(result.exit_code == 0);
+}
+
+TEST_CASE("matrix notes a stored hierarchy it cannot use, and answers exactly without it", "[cli][matrix]") {
+    // The town's file with its time hierarchy marked as layout version 1 (router/HIERARCHY.md),
+    // as a file written by an older ringroad would be.
+    const graph::RoadGraph graph = graph::load_road_graph(town().region_with_hierarchy);
+    const auto header = graph.section("ch.t.header");
+    REQUIRE(header.size() >= 4);
+    graph::ExtraSection old_header{"ch.t.header", std::vector<std::byte>(header.begin(), header.end())};
+    const std::uint32_t old_version = 1;
+    std::memcpy(old_header.bytes.data(), &old_version, sizeof old_version);
+    const std::string old_region = town().folder + "/town-old-ch.rrg";
+    graph::write_road_graph(graph::attach_sections(graph, {old_header}), old_region);
+
+    const auto old_run = run_ringroad({"matrix", old_region, "--stops", town().stops, "--format", "json"});
+    REQUIRE(old_run.exit_code == 0);
+    REQUIRE(old_run.err.find("note: " + old_region + ": its stored time hierarchy") != std::string::npos);
+    REQUIRE(old_run.err.find("ringroad build") != std::string::npos);
+    const auto current = run_ringroad({"matrix", town().region_with_hierarchy, "--stops", town().stops, "--format", "json"});
+    REQUIRE(current.err.find("note:") == std::string::npos);
+    const auto a = nlohmann::json::parse(old_run.out);
+    const auto b = nlohmann::json::parse(current.out);
+    REQUIRE(a["engine"] == "dijkstra");
+    REQUIRE(a["seconds"] == b["seconds"]);
+    REQUIRE(a["meters"] == b["meters"]);
+    // The distance hierarchy is intact: no note when asking for it.
+    const auto distance = run_ringroad({"matrix", old_region, "--stops", town().stops, "--metric", "distance"});
+    REQUIRE(distance.exit_code == 0);
+    REQUIRE(distance.err.find("note:") == std::string::npos);
 }
