@@ -1,17 +1,22 @@
 // `ringroad info REGION.rrg [--json]`: provenance and counts of a region graph. Loading the
-// file checks its magic, version and every section checksum, so `info` doubles as a verifier.
+// file checks its magic, version and every section checksum, and each stored hierarchy is checked
+// the way the routing commands check it, so `info` doubles as a verifier.
 
 #include "common/input_error.hpp"
 #include "daemon/cli/commands.hpp"
 #include "daemon/cli/output.hpp"
 #include "graph/graph_file.hpp"
+#include "router/contraction_hierarchy.hpp"
+#include "router/routing_graph.hpp"
 
 #include <CLI/CLI.hpp>
 #include <nlohmann/json.hpp>
 
 #include <cstdio>
 #include <iostream>
+#include <optional>
 #include <string>
+#include <vector>
 
 namespace ringroad::cli {
 
@@ -27,11 +32,38 @@ double road_km(const graph::RoadGraph& graph) {
     return decimetres.empty() ? 0.0 : std::stod(decimetres) / 10000.0;
 }
 
-bool has_hierarchy(const graph::RoadGraph& graph) {
-    for (const auto& [tag, bytes] : graph.extra_sections()) {
-        if (tag.rfind("ch.", 0) == 0) return true;
+// The stored hierarchies by metric: usable by the other commands (with their default restriction
+// setting), or present but not (another layout version, other settings, damage).
+struct HierarchyReport {
+    std::vector<std::string> usable;
+    std::vector<std::string> unusable;
+};
+
+HierarchyReport check_hierarchies(const graph::RoadGraph& graph) {
+    HierarchyReport report;
+    std::optional<router::RoutingGraph> routing_graph;
+    for (const router::Metric metric : {router::Metric::time, router::Metric::distance}) {
+        if (!router::has_hierarchy_sections(graph, metric)) continue;
+        if (!routing_graph) routing_graph.emplace(graph, router::RestrictionPolicy::automatic);
+        const bool usable = router::ContractionHierarchy::from_sections(graph, *routing_graph, metric).has_value();
+        (usable ? report.usable : report.unusable).emplace_back(router::metric_name(metric));
     }
-    return false;
+    return report;
+}
+
+std::string joined(const std::vector<std::string>& words) {
+    std::string text;
+    for (const std::string& word : words) text += (text.empty() ? "" : ", ") + word;
+    return text;
+}
+
+std::string hierarchy_line(const HierarchyReport& report) {
+    std::string line = report.usable.empty() ? "none" : joined(report.usable);
+    if (!report.unusable.empty()) {
+        line += "  (" + joined(report.unusable) + " stored by another version or for other settings: not used;"
+                " rebuild the file with `ringroad build`)";
+    }
+    return line;
 }
 
 nlohmann::json info_json(const graph::RoadGraph& graph, const std::string& path) {
@@ -45,7 +77,10 @@ nlohmann::json info_json(const graph::RoadGraph& graph, const std::string& path)
         }
     }
     info["road_km"] = std::round(road_km(graph) * 1000.0) / 1000.0;
-    info["hierarchy"] = has_hierarchy(graph);
+    const HierarchyReport hierarchies = check_hierarchies(graph);
+    info["hierarchy"] = !hierarchies.usable.empty();
+    info["hierarchy_metrics"] = hierarchies.usable;
+    info["hierarchy_unusable"] = hierarchies.unusable;
     for (const char* key : {"profile", "source", "source_timestamp"}) {
         if (!info.contains(key)) info[key] = "";
     }
@@ -72,7 +107,7 @@ void print_text(const graph::RoadGraph& graph, const std::string& path) {
               << "  turn rules       " << graph.turn_restrictions().size() << " stored, "
               << value("restrictions_unmatched") << " not matched\n"
               << "  skipped ways     " << value("ways_missing_nodes") << " (nodes missing from the extract)\n"
-              << "  hierarchy        " << (has_hierarchy(graph) ? "yes" : "no") << '\n'
+              << "  hierarchy        " << hierarchy_line(check_hierarchies(graph)) << '\n'
               << "  bounds           " << value("bbox") << "  (lon,lat,lon,lat)\n";
 }
 

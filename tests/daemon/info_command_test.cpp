@@ -51,6 +51,8 @@ TEST_CASE("info --json reports provenance and counts of a real extract") {
     CHECK(info["junctions"].get<long>() > 100);
     CHECK(info["edges"].get<long>() > info["junctions"].get<long>());
     CHECK(info["hierarchy"] == true);
+    CHECK(info["hierarchy_metrics"] == nlohmann::json({"time", "distance"}));
+    CHECK(info["hierarchy_unusable"].empty());
     // Monaco's road network is a few hundred km at most (the country is about 2 km²; from memory).
     CHECK(info["road_km"].get<double>() > 20.0);
     CHECK(info["road_km"].get<double>() < 500.0);
@@ -59,7 +61,7 @@ TEST_CASE("info --json reports provenance and counts of a real extract") {
 TEST_CASE("info prints text by default") {
     const auto result = run_ringroad({"info", monaco().path});
     REQUIRE(result.exit_code == 0);
-    for (const char* word : {"junctions", "road length", "profile", "hierarchy"}) {
+    for (const char* word : {"junctions", "road length", "profile", "hierarchy        time, distance\n"}) {
         CHECK(result.out.find(word) != std::string::npos);
     }
 }

@@ -179,6 +179,9 @@ TEST_CASE("matrix notes a stored hierarchy it cannot use, and answers exactly wi
     REQUIRE(a["engine"] == "dijkstra");
     REQUIRE(a["seconds"] == b["seconds"]);
     REQUIRE(a["meters"] == b["meters"]);
+    // `info` tells the same.
+    const auto info = run_ringroad({"info", old_region});
+    REQUIRE(info.out.find("hierarchy        distance  (time stored by another version") != std::string::npos);
     // The distance hierarchy is intact: no note when asking for it.
     const auto distance = run_ringroad({"matrix", old_region, "--stops", town().stops, "--metric", "distance"});
     REQUIRE(distance.exit_code == 0);
