@@ -1,6 +1,7 @@
 // Contraction-hierarchy build benchmark: for the largest real extract at hand (Andorra,
-// © OpenStreetMap contributors, ODbL 1.0) and random street grids of the given sizes
-// (tests/router/test_graphs.hpp with router_bench's options), builds the hierarchy of each metric
+// © OpenStreetMap contributors, ODbL 1.0), invented regions of the given sizes (`ringroad synth`,
+// seed 1, written as PBF and read by the extractor, as router_bench does) and random street grids
+// of the given sizes (tests/router/test_graphs.hpp with router_bench's options), builds the hierarchy of each metric
 // and prints its build time (process CPU and wall), upward arcs, shortcuts, bytes, the average
 // upward search space, a 1000 x 1000 many-to-many time, and an exactness spot check against our
 // Dijkstra (router/dijkstra.hpp, itself checked against the Boost Graph Library in
@@ -8,23 +9,30 @@
 // The reference measured in the same run is one Dijkstra one-to-all search: the build is printed
 // as a multiple of it, which stays comparable across machines and loads.
 //
-// Usage: hierarchy_build_bench [--grid ROWS]... [--no-extract] [--threads N] [--metric time|distance]
-//   (default: Andorra, then a 300 x 300 grid; --grid 0 skips the grids)
+// Usage: hierarchy_build_bench [--synth JUNCTIONS]... [--grid ROWS]... [--no-extract] [--threads N]
+//                              [--metric time|distance]
+//   (default: Andorra, then a 300 x 300 grid; with --synth, no grid unless --grid is given;
+//   --grid 0 skips the grids)
 #include "bench/hierarchy_search_space.hpp"
 #include "bench/peak_memory.hpp"
 #include "extract/road_extractor.hpp"
 #include "router/contraction_hierarchy.hpp"
 #include "router/dijkstra.hpp"
 #include "router/hierarchy_query.hpp"
+#include "synth/pbf_region_writer.hpp"
+#include "synth/region_calibration.hpp"
 #include "tests/router/test_graphs.hpp"
 
 #include <algorithm>
 #include <chrono>
 #include <cstdio>
 #include <ctime>
+#include <filesystem>
 #include <random>
 #include <string>
 #include <thread>
+
+#include <unistd.h>
 
 using namespace ringroad;
 using namespace ringroad::router;
@@ -104,10 +112,25 @@ void run_suite(const std::string& name, const graph::RoadGraph& road_graph, unsi
     std::fflush(stdout);
 }
 
+// An invented region as a user would get it: `ringroad synth` (seed 1), then the extractor.
+graph::RoadGraph invented_region(std::uint64_t junctions) {
+    const std::filesystem::path scratch =
+        std::filesystem::temp_directory_path() / ("ringroad-hierarchy-build-bench-" + std::to_string(::getpid()));
+    std::filesystem::create_directories(scratch);
+    const std::string region_path = (scratch / "region.osm.pbf").string();
+    synth::write_region_pbf(synth::plan_region(junctions, 1, nullptr), region_path, nullptr);
+    extract::ExtractOptions options;
+    options.input_path = region_path;
+    graph::RoadGraph road_graph = extract::extract_and_build_road_graph(options, nullptr);
+    std::filesystem::remove_all(scratch);
+    return road_graph;
+}
+
 } // namespace
 
 int main(int argc, char** argv) {
     std::vector<std::uint32_t> grid_sizes;
+    std::vector<std::uint64_t> synth_sizes;
     bool grids_given = false;
     bool with_extract = true;
     unsigned threads = 0;
@@ -118,6 +141,9 @@ int main(int argc, char** argv) {
             grids_given = true;
             const auto rows = static_cast<std::uint32_t>(std::stoul(argv[++i]));
             if (rows > 0) grid_sizes.push_back(rows);
+        } else if (argument == "--synth" && i + 1 < argc) {
+            const auto junctions = static_cast<std::uint64_t>(std::stoull(argv[++i]));
+            if (junctions > 0) synth_sizes.push_back(junctions);
         } else if (argument == "--threads" && i + 1 < argc) {
             threads = static_cast<unsigned>(std::stoul(argv[++i]));
         } else if (argument == "--metric" && i + 1 < argc) {
@@ -130,16 +156,20 @@ int main(int argc, char** argv) {
         } else if (argument == "--no-extract") {
             with_extract = false;
         } else {
-            std::fprintf(stderr, "usage: hierarchy_build_bench [--grid ROWS]... [--no-extract] [--threads N] [--metric time|distance]\n");
+            std::fprintf(stderr, "usage: hierarchy_build_bench [--synth JUNCTIONS]... [--grid ROWS]... [--no-extract] [--threads N] [--metric time|distance]\n");
             return 2;
         }
     }
-    if (!grids_given) grid_sizes = {300};
+    if (!grids_given && synth_sizes.empty()) grid_sizes = {300};
     std::printf("%u cores, %u build threads (0 = all)\n\n", std::max(1u, std::thread::hardware_concurrency()), threads);
     if (with_extract) {
         extract::ExtractOptions options;
         options.input_path = std::string(RINGROAD_FIXTURES_DIR) + "/osm/andorra.osm.pbf";
         run_suite("Andorra", extract::extract_and_build_road_graph(options, nullptr), threads, metrics);
+    }
+    for (std::uint64_t junctions : synth_sizes) {
+        run_suite("invented region of " + std::to_string(junctions) + " junctions (ringroad synth, seed 1)",
+                  invented_region(junctions), threads, metrics);
     }
     for (std::uint32_t rows : grid_sizes) {
         run_suite("random street grid " + std::to_string(rows) + " x " + std::to_string(rows),

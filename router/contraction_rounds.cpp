@@ -14,15 +14,29 @@ namespace ringroad::router {
 namespace {
 
 // Witness searches when contracting, and the cheaper ones that estimate a priority.
-// Measured with bench/hierarchy_build_bench.cpp (time metric). When contracting, 100 settled
-// nodes: 500 gave 13% fewer shortcuts and a 9% smaller search space on the 150 x 150 grid for
-// twice the build time; 50 gave a denser graph that was slower to finish. When estimating a
-// priority, 20 settled nodes, 3 arcs deep; on the 300 x 300 grid 30 nodes gave an average
-// upward search space of 104 for 24.8 s of CPU, 20 nodes 107 for 21.8 s, 10 nodes 114 for 18 s
-// (the contractor this one replaced: 108 for 17.5 s, on one core); 2 arcs gave 10% more
-// shortcuts on the 150 x 150 grid.
-constexpr WitnessLimits kContractLimits{100, 64};
-constexpr WitnessLimits kEstimateLimits{20, 3};
+// Measured with bench/hierarchy_build_bench.cpp --synth (invented regions, seed 1). When
+// contracting, 1000 settled nodes: a search stops as soon as every target has its answer, so a
+// high limit costs little, and the witnesses it finds keep the core sparse; at 100,000 junctions
+// (distance metric) 1000 gave 2% fewer shortcuts than 100 and a 2.6 times faster build (the
+// denser core made every later search dearer); 4000 gave no further gain. When estimating a
+// priority, 40 settled nodes, 3 arcs deep: against 20 nodes, 2% fewer shortcuts and a 6% smaller
+// upward search space for 10% more build time (distance metric, 100,000 junctions); 100 nodes
+// 5 arcs deep gave another 8% smaller search space (distance only) for 30% more build time.
+// (On the 300 x 300 grid, with 100 settled nodes when contracting, 30 nodes when estimating
+// gave an average upward search space of 104 for 24.8 s of CPU, 20 nodes 107 for 21.8 s, 10
+// nodes 114 for 18 s; 2 arcs deep gave 10% more shortcuts on the 150 x 150 grid.)
+constexpr WitnessLimits kContractLimits{1000, 64};
+constexpr WitnessLimits kEstimateLimits{40, 3};
+// Re-estimating a priority after a neighbour's contraction simulates the node's contraction
+// again only when it is cheap (at most this many in x out pairs) or when the node's arc count
+// moved by more than 1/kDegreeChangeFraction since its last simulation; otherwise the last
+// simulation's shortcut count is reused with fresh arc counts, contracted neighbours and depth.
+// In the dense core of a large region a round contracts only a handful of nodes while hundreds
+// of neighbours of degree 100 or more would be simulated again at a cost of in x out searches:
+// at 100,000 junctions (distance metric) the last 1000 of 226,713 nodes took 25 of the 32 s of
+// re-estimation.
+constexpr std::uint64_t kAlwaysSimulatePairs = 256;
+constexpr std::uint32_t kDegreeChangeFraction = 16;
 // Priority = weights . (edge difference, contracted neighbours, depth) (Geisberger et al. 2008).
 constexpr std::int64_t kEdgeDifferenceWeight = 2;
 constexpr std::int64_t kContractedNeighbourWeight = 1;
@@ -89,6 +103,8 @@ public:
         rank_.assign(node_count_, 0);
         upward_begin_.assign(node_count_, 0);
         upward_count_.assign(node_count_, 0);
+        simulated_shortcuts_.assign(node_count_, 0);
+        simulated_degree_.assign(node_count_, kNeverSimulated);
         for (unsigned worker = 0; worker < threads_; ++worker) searches_.push_back(std::make_unique<WitnessSearch>(node_count_));
         sorted_out_.resize(threads_);
     }
@@ -116,6 +132,7 @@ public:
 
 private:
     static constexpr std::uint32_t kContracted = AvoidRoundFrom::kNotInRound + 1;
+    static constexpr std::uint32_t kNeverSimulated = 0xFFFFFFFFu;
 
     bool precedes(NodeId a, NodeId b) const {
         if (priority_[a] != priority_[b]) return priority_[a] < priority_[b];
@@ -130,12 +147,10 @@ private:
         const std::span<const ContractionArc> incoming = graph_.in(node);
         const std::span<const ContractionArc> outgoing = graph_.out(node);
         if (incoming.empty() || outgoing.empty()) return;
-        PackedWeight longest_out = 0;
-        for (const ContractionArc& arc : outgoing) longest_out = std::max(longest_out, arc.weight);
         for (const ContractionArc& in_arc : incoming) {
             // A lone target that is the source itself needs no search.
             if (outgoing.size() == 1 && outgoing[0].other == in_arc.other) continue;
-            search.run(graph_, in_arc.other, in_arc.weight + longest_out, outgoing, avoid, limits);
+            search.run(graph_, in_arc.other, in_arc.weight, outgoing, avoid, limits);
             for (const ContractionArc& out_arc : outgoing) {
                 if (out_arc.other == in_arc.other) continue;
                 const PackedWeight through = in_arc.weight + out_arc.weight;
@@ -148,11 +163,27 @@ private:
         }
     }
 
-    std::int64_t estimate_priority(NodeId node, WitnessSearch& search) const {
-        std::int64_t shortcuts = 0;
-        const AvoidNode avoid{node};
-        find_shortcuts(node, avoid, search, kEstimateLimits, [&](NodeId, NodeId, PackedWeight) { ++shortcuts; });
+    // Whether the node's shortcuts must be counted again (see kAlwaysSimulatePairs).
+    bool needs_simulation(NodeId node) const {
+        const std::uint32_t degree = static_cast<std::uint32_t>(graph_.in(node).size() + graph_.out(node).size());
+        const std::uint32_t before = simulated_degree_[node];
+        if (before == kNeverSimulated) return true;
+        if (std::uint64_t{graph_.in(node).size()} * graph_.out(node).size() <= kAlwaysSimulatePairs) return true;
+        const std::uint32_t change = before > degree ? before - degree : degree - before;
+        return std::uint64_t{change} * kDegreeChangeFraction > before;
+    }
+
+    // Writes only the node's own entries: nodes are estimated in parallel.
+    std::int64_t estimate_priority(NodeId node, WitnessSearch& search) {
         const auto removed = static_cast<std::int64_t>(graph_.in(node).size() + graph_.out(node).size());
+        if (needs_simulation(node)) {
+            std::uint32_t found = 0;
+            const AvoidNode avoid{node};
+            find_shortcuts(node, avoid, search, kEstimateLimits, [&](NodeId, NodeId, PackedWeight) { ++found; });
+            simulated_shortcuts_[node] = found;
+            simulated_degree_[node] = static_cast<std::uint32_t>(removed);
+        }
+        const std::int64_t shortcuts = simulated_shortcuts_[node];
         return kEdgeDifferenceWeight * (shortcuts - removed) + kContractedNeighbourWeight * contracted_neighbours_[node] +
                kDepthWeight * depth_[node];
     }
@@ -295,6 +326,9 @@ private:
     std::vector<std::int64_t> priority_;
     std::vector<std::uint32_t> contracted_neighbours_;
     std::vector<std::uint32_t> depth_;
+    // Shortcuts found by the node's last simulated contraction, and its arc count then.
+    std::vector<std::uint32_t> simulated_shortcuts_;
+    std::vector<std::uint32_t> simulated_degree_;
     // Position in the current round, AvoidRoundFrom::kNotInRound, or kContracted.
     std::vector<std::uint32_t> round_position_;
     std::vector<std::uint32_t> touched_;

@@ -2,15 +2,22 @@
 
 namespace ringroad::router {
 
-void WitnessSearch::start(NodeId source, std::span<const ContractionArc> targets, std::uint32_t& targets_left) {
+PackedWeight WitnessSearch::start(NodeId source, PackedWeight source_weight, std::span<const ContractionArc> targets,
+                                  std::uint32_t& targets_left) {
     if (++query_ == 0) {   // stamps wrapped: forget every old label
-        for (Label& label : labels_) label = Label{kUnreachableWeight, 0, 0};
+        for (Label& label : labels_) label = Label{kUnreachableWeight, 0, 0, 0};
         query_ = 1;
     }
+    PackedWeight bound = 0;
     for (const ContractionArc& target : targets) {
+        const PackedWeight through = source_weight + target.weight;
+        // A sum past 2^64 is never a shortcut (router/metric.hpp): nothing to decide.
+        if (target.other == source || through < source_weight) continue;
         Label& label = labels_[target.other];
-        if (target.other != source && label.target_stamp != query_) {
+        if (label.target_stamp != query_) {
             label.target_stamp = query_;
+            label.target_bound = through;
+            bound = std::max(bound, through);
             ++targets_left;
         }
     }
@@ -18,6 +25,7 @@ void WitnessSearch::start(NodeId source, std::span<const ContractionArc> targets
     labels_[source].stamp = query_;
     labels_[source].distance = 0;
     heap_.push_back({0, source, 0});
+    return bound;
 }
 
 } // namespace ringroad::router

@@ -1,9 +1,10 @@
 #pragma once
 // WitnessSearch: the bounded Dijkstra a contraction runs from each in-neighbour u of a node v to
 // learn whether a path u -> w avoiding v is at most as cheap as u -> v -> w (a "witness", which
-// makes the shortcut unnecessary). It stops when every target is settled, when the next label
-// exceeds the bound, after a number of settled nodes, and it does not continue from nodes that
-// are a number of arcs from u (hop limit). Stopping early can only miss a witness, which adds a
+// makes the shortcut unnecessary). It stops as soon as every target w has its answer (reached at
+// most as cheaply as u -> v -> w, or settled dearer), when no label within the dearest such path
+// is left, after a number of settled nodes, and it does not continue from nodes that are a
+// number of arcs from u (hop limit). Stopping at a limit can only miss a witness, which adds a
 // needless shortcut, never a wrong distance.
 // Nodes the search must not pass through are told by a rule (AvoidNode, AvoidRoundFrom). A
 // workspace is reused between searches (stamped labels) and belongs to one thread.
@@ -46,13 +47,16 @@ struct AvoidRoundFrom {
 
 class WitnessSearch {
 public:
-    explicit WitnessSearch(std::uint32_t node_count) : labels_(node_count, Label{kUnreachableWeight, 0, 0}) {}
+    explicit WitnessSearch(std::uint32_t node_count) : labels_(node_count, Label{kUnreachableWeight, 0, 0, 0}) {}
 
-    // Searches from `source` until the targets (out-neighbours of the avoided node) are settled
-    // or a limit is reached; distance() then tells the best known path length to each target.
+    // Searches from `source`, an in-neighbour reaching the avoided node at `source_weight`, until
+    // every target (an out-neighbour w of the avoided node, other than the source) is decided:
+    // reached at most as cheaply as source_weight + the target's weight (a witness), or settled
+    // dearer; or until a limit is reached. distance(w) then is at most the path through the
+    // avoided node exactly when a witness was found.
     template <typename Avoid>
-    void run(const ContractionGraph& graph, NodeId source, PackedWeight bound, std::span<const ContractionArc> targets,
-             const Avoid& avoid, const WitnessLimits& limits);
+    void run(const ContractionGraph& graph, NodeId source, PackedWeight source_weight,
+             std::span<const ContractionArc> targets, const Avoid& avoid, const WitnessLimits& limits);
     PackedWeight distance(NodeId node) const { return labels_[node].stamp == query_ ? labels_[node].distance : kUnreachableWeight; }
 
 private:
@@ -62,6 +66,7 @@ private:
         PackedWeight distance;
         std::uint32_t stamp;
         std::uint32_t target_stamp;
+        PackedWeight target_bound;   // for a target: the weight of the path through the avoided node
     };
     struct HeapEntry {
         PackedWeight weight;
@@ -71,7 +76,9 @@ private:
     struct Later {
         bool operator()(const HeapEntry& a, const HeapEntry& b) const { return a.weight > b.weight; }
     };
-    void start(NodeId source, std::span<const ContractionArc> targets, std::uint32_t& targets_left);
+    // Marks the targets and returns the weight beyond which no label can help.
+    PackedWeight start(NodeId source, PackedWeight source_weight, std::span<const ContractionArc> targets,
+                       std::uint32_t& targets_left);
 
     std::vector<Label> labels_;
     std::uint32_t query_ = 0;
@@ -79,11 +86,11 @@ private:
 };
 
 template <typename Avoid>
-void WitnessSearch::run(const ContractionGraph& graph, NodeId source, PackedWeight bound,
+void WitnessSearch::run(const ContractionGraph& graph, NodeId source, PackedWeight source_weight,
                         std::span<const ContractionArc> targets, const Avoid& avoid, const WitnessLimits& limits) {
     static_assert(std::is_invocable_r_v<bool, decltype(&Avoid::excludes), const Avoid&, NodeId>);
     std::uint32_t targets_left = 0;
-    start(source, targets, targets_left);
+    const PackedWeight bound = start(source, source_weight, targets, targets_left);
     std::uint32_t settled = 0;
     while (!heap_.empty() && targets_left > 0 && settled < limits.settled_nodes) {
         std::pop_heap(heap_.begin(), heap_.end(), Later{});
@@ -92,7 +99,7 @@ void WitnessSearch::run(const ContractionGraph& graph, NodeId source, PackedWeig
         Label& label = labels_[entry.node];
         if (entry.weight != label.distance) continue;   // superseded copy
         ++settled;
-        if (label.target_stamp == query_) {
+        if (label.target_stamp == query_) {   // settled dearer than the path through the avoided node
             label.target_stamp = 0;
             --targets_left;
         }
@@ -105,6 +112,12 @@ void WitnessSearch::run(const ContractionGraph& graph, NodeId source, PackedWeig
             if (avoid.excludes(arc.other)) continue;
             next.stamp = query_;
             next.distance = candidate;
+            // A target reached at most as cheaply as through the avoided node has its witness:
+            // later improvements cannot change that answer.
+            if (next.target_stamp == query_ && candidate <= next.target_bound) {
+                next.target_stamp = 0;
+                if (--targets_left == 0) return;
+            }
             heap_.push_back({candidate, arc.other, entry.hops + 1});
             std::push_heap(heap_.begin(), heap_.end(), Later{});
         }
