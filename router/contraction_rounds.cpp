@@ -17,11 +17,13 @@ namespace {
 // Measured with bench/hierarchy_build_bench.cpp --synth (invented regions, seed 1). When
 // contracting, 1000 settled nodes: a search stops as soon as every target has its answer, so a
 // high limit costs little, and the witnesses it finds keep the core sparse; at 100,000 junctions
-// (distance metric) 1000 gave 2% fewer shortcuts than 100 and a 2.6 times faster build (the
+// (distance metric) 1000 gave 4% fewer shortcuts than 100 and took 22% less CPU time (the
 // denser core made every later search dearer); 4000 gave no further gain. When estimating a
-// priority, 40 settled nodes, 3 arcs deep: against 20 nodes, 2% fewer shortcuts and a 6% smaller
-// upward search space for 10% more build time (distance metric, 100,000 junctions); 100 nodes
-// 5 arcs deep gave another 8% smaller search space (distance only) for 30% more build time.
+// priority, 40 settled nodes, 3 arcs deep: against 20 nodes, 3% fewer shortcuts and an 8%
+// smaller upward search space for 4% more CPU time (same region and metric). At 200,000
+// junctions 60 nodes 4 arcs deep gave 2% fewer shortcuts, a 9% smaller search space in the
+// distance metric (none in the time metric) for 12-27% more CPU time; 100 nodes 5 arcs deep an
+// 11% smaller one in the distance metric but a 5% larger one in the time metric, for 40-50% more.
 // (On the 300 x 300 grid, with 100 settled nodes when contracting, 30 nodes when estimating
 // gave an average upward search space of 104 for 24.8 s of CPU, 20 nodes 107 for 21.8 s, 10
 // nodes 114 for 18 s; 2 arcs deep gave 10% more shortcuts on the 150 x 150 grid.)
@@ -30,7 +32,7 @@ constexpr WitnessLimits kEstimateLimits{40, 3};
 // Re-estimating a priority after a neighbour's contraction simulates the node's contraction
 // again only when it is cheap (at most this many in x out pairs) or when the node's arc count
 // moved by more than 1/kDegreeChangeFraction since its last simulation; otherwise the last
-// simulation's shortcut count is reused with fresh arc counts, contracted neighbours and depth.
+// simulation's shortcut count is reused with the fresh arc count, contracted neighbours and depth.
 // In the dense core of a large region a round contracts only a handful of nodes while hundreds
 // of neighbours of degree 100 or more would be simulated again at a cost of in x out searches:
 // at 100,000 junctions (distance metric) the last 1000 of 226,713 nodes took 25 of the 32 s of
@@ -38,23 +40,34 @@ constexpr WitnessLimits kEstimateLimits{40, 3};
 constexpr std::uint64_t kAlwaysSimulatePairs = 256;
 constexpr std::uint32_t kDegreeChangeFraction = 16;
 // Priority = weights . (edge difference, contracted neighbours, depth) (Geisberger et al. 2008).
-constexpr std::int64_t kEdgeDifferenceWeight = 2;
+// Measured with hierarchy_build_bench --synth (seed 1), against the former weights 2, 1, 1:
+// 3, 1, 1 gave 2-5% fewer shortcuts, a 2-3% smaller upward search space at 100,000 and 200,000
+// junctions (the same at 20,000) and a slightly faster build. Without the contracted neighbours
+// (3, 0, 1 or 2, 0, 1) there were 2-4% fewer shortcuts still, but the time metric's search space
+// grew by 4-8% at 20,000 or 100,000 junctions; 2 x depth gave more shortcuts.
+constexpr std::int64_t kEdgeDifferenceWeight = 3;
 constexpr std::int64_t kContractedNeighbourWeight = 1;
 constexpr std::int64_t kDepthWeight = 1;
-// Work items per chunk of a parallel phase: fixed, so results never depend on the thread count.
-constexpr std::size_t kChunkSize = 64;
+// Work items per chunk of a parallel phase: a function of the item count only, so results never
+// depend on the thread count. Up to 64 items; fewer when there are few, since a round in the
+// dense core contracts a handful of nodes whose witness searches are the dearest of the build
+// (one chunk of 64 left one core idle: at 1,000,000 junctions the distance build took 410 s of
+// CPU for 327 s of wall time on 2 cores).
+constexpr std::size_t kMaxChunkSize = 64;
+std::size_t chunk_size(std::size_t count) { return std::clamp<std::size_t>(count / 64, 1, kMaxChunkSize); }
 
-// Runs body(worker, chunk, begin, end) over [0, count) in chunks of kChunkSize on `threads`
-// threads; `worker` < threads names the caller's private workspace.
+// Runs body(worker, chunk, begin, end) over [0, count) in chunks of chunk_size(count) on
+// `threads` threads; `worker` < threads names the caller's private workspace.
 template <typename Body>
 void for_each_chunk(std::size_t count, unsigned threads, Body body) {
     static_assert(std::is_invocable_v<Body&, unsigned, std::size_t, std::size_t, std::size_t>);
-    const std::size_t chunks = (count + kChunkSize - 1) / kChunkSize;
+    const std::size_t size = chunk_size(count);
+    const std::size_t chunks = (count + size - 1) / size;
     const unsigned workers = static_cast<unsigned>(std::min<std::size_t>(threads, chunks));
     std::atomic<std::size_t> next{0};
     const auto work = [&](unsigned worker) {
         for (std::size_t chunk = next++; chunk < chunks; chunk = next++) {
-            body(worker, chunk, chunk * kChunkSize, std::min(count, (chunk + 1) * kChunkSize));
+            body(worker, chunk, chunk * size, std::min(count, (chunk + 1) * size));
         }
     };
     if (workers <= 1) {
@@ -247,7 +260,8 @@ private:
 
     std::uint32_t contract_round(const std::vector<NodeId>& round, std::uint32_t next_rank) {
         for (std::size_t i = 0; i < round.size(); ++i) round_position_[round[i]] = static_cast<std::uint32_t>(i);
-        std::vector<ChunkResult> results((round.size() + kChunkSize - 1) / kChunkSize);
+        const std::size_t size = chunk_size(round.size());
+        std::vector<ChunkResult> results((round.size() + size - 1) / size);
         for_each_chunk(round.size(), threads_, [&](unsigned worker, std::size_t chunk, std::size_t begin, std::size_t end) {
             ChunkResult& result = results[chunk];
             for (std::size_t i = begin; i < end; ++i) {
@@ -265,7 +279,7 @@ private:
             const ChunkResult& result = results[chunk];
             std::size_t arc = 0;
             for (std::size_t k = 0; k < result.upward_counts.size(); ++k) {
-                const NodeId node = round[chunk * kChunkSize + k];
+                const NodeId node = round[chunk * size + k];
                 rank_[node] = next_rank++;
                 upward_begin_[node] = upward_arcs_.size();
                 upward_count_[node] = result.upward_counts[k];

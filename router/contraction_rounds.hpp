@@ -2,15 +2,16 @@
 // contract_in_rounds: orders and contracts every node of the routing graph for one metric, the
 // way the parallel contraction-hierarchy builds do it (Vetter 2009, "Parallel Time-Dependent
 // Contraction Hierarchies"; Geisberger et al. 2008 for the priority terms):
-//  * every node has a priority: edge difference (shortcuts it would need minus arcs it removes)
-//    + contracted neighbours + depth (the simulation uses a cheap, hop-limited witness search, and
+//  * every node has a priority: 3 x edge difference (shortcuts it would need minus arcs it
+//    removes) + contracted neighbours + depth (the simulation uses a cheap, hop-limited witness search, and
 //    is repeated for a dense node only when its arc count has changed noticeably);
 //  * a round contracts at once every node whose priority is smaller than that of all its
 //    remaining neighbours (an independent set: no two are adjacent), the witness searches of the
 //    round running on all threads against the graph as it was before the round;
 //  * the shortcuts are then inserted and the neighbours' priorities re-evaluated, in parallel.
 // The result depends on the graph only, never on the number of threads or their timing: work
-// is cut into fixed chunks whose results are applied in chunk order.
+// is cut into chunks whose size depends on the amount of work only, and their results are
+// applied in chunk order.
 
 #include "router/contraction_hierarchy.hpp"
 
