@@ -3,8 +3,8 @@
 // way the parallel contraction-hierarchy builds do it (Vetter 2009, "Parallel Time-Dependent
 // Contraction Hierarchies"; Geisberger et al. 2008 for the priority terms):
 //  * every node has a priority: 3 x edge difference (shortcuts it would need minus arcs it
-//    removes) + contracted neighbours + depth (the simulation uses a cheap, hop-limited witness search, and
-//    is repeated for a dense node only when its arc count has changed noticeably);
+//    removes) + contracted neighbours + depth; the simulation uses a cheap, hop-limited witness
+//    search, and is repeated for a dense node only when its arc count has changed noticeably;
 //  * a round contracts at once every node whose priority is smaller than that of all its
 //    remaining neighbours (an independent set: no two are adjacent), the witness searches of the
 //    round running on all threads against the graph as it was before the round;

@@ -60,8 +60,9 @@ public:
     PackedWeight distance(NodeId node) const { return labels_[node].stamp == query_ ? labels_[node].distance : kUnreachableWeight; }
 
 private:
-    // One cache line access per node: its label, the query it belongs to, and whether it is a
-    // target of the current query.
+    // One record per node, read in one access: its label, the query it belongs to, whether it is
+    // a still undecided target of the current query and that target's bound. (A 16-byte record
+    // with the bounds kept apart measured no faster at 200,000 junctions.)
     struct Label {
         PackedWeight distance;
         std::uint32_t stamp;
