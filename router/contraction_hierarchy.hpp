@@ -31,19 +31,6 @@ namespace ringroad { class Progress; }
 
 namespace ringroad::router {
 
-// One upward arc as the contraction produces it (router/contraction_rounds.hpp), stored at its
-// lower node, usable forwards, backwards or both.
-struct HierarchyArc {
-    NodeId higher_node;
-    NodeId middle_node;          // kNoNode for an original turn arc, else the shortcut's middle
-    PackedWeight weight;
-    std::uint32_t directions;    // kArcForward: lower -> higher exists; kArcBackward: higher -> lower
-    std::uint32_t padding;
-};
-static_assert(sizeof(HierarchyArc) == 24);
-inline constexpr std::uint32_t kArcForward = 1;
-inline constexpr std::uint32_t kArcBackward = 2;
-
 // One arc of the stored hierarchy, kept at its lower end: `other` is the rank of the higher end.
 // 12 bytes (weight at offset 4): a search reads these records and little else. Layout is part of
 // the file format (HIERARCHY.md).

@@ -241,7 +241,7 @@ private:
         sorted_out.clear();
         for (const ContractionArc& arc : graph_.out(node)) {
             sorted_out.push_back({arc.other, static_cast<std::uint32_t>(result.upward_arcs.size())});
-            result.upward_arcs.push_back({arc.other, arc.middle, arc.weight, kArcForward, 0});
+            result.upward_arcs.push_back({arc.other, arc.middle, arc.weight, kArcForward});
         }
         std::sort(sorted_out.begin(), sorted_out.end());
         for (const ContractionArc& arc : graph_.in(node)) {
@@ -253,7 +253,7 @@ private:
                     continue;
                 }
             }
-            result.upward_arcs.push_back({arc.other, arc.middle, arc.weight, kArcBackward, 0});
+            result.upward_arcs.push_back({arc.other, arc.middle, arc.weight, kArcBackward});
         }
         result.upward_counts.push_back(static_cast<std::uint32_t>(result.upward_arcs.size() - first));
     }

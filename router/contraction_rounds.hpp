@@ -13,7 +13,8 @@
 // is cut into chunks whose size depends on the amount of work only, and their results are
 // applied in chunk order.
 
-#include "router/contraction_hierarchy.hpp"
+#include "router/metric.hpp"
+#include "router/routing_graph.hpp"
 
 #include <cstdint>
 #include <vector>
@@ -22,8 +23,19 @@ namespace ringroad { class Progress; }
 
 namespace ringroad::router {
 
-// The hierarchy in the stored layout (router/HIERARCHY.md): rank per node, upward arcs grouped
-// by their lower node.
+// One upward arc as the contraction produces it, stored at its lower node, usable forwards,
+// backwards or both.
+struct HierarchyArc {
+    NodeId higher_node;
+    NodeId middle_node;          // kNoNode for an original turn arc, else the shortcut's middle
+    PackedWeight weight;
+    std::uint32_t directions;    // kArcForward: lower -> higher exists; kArcBackward: higher -> lower
+};
+inline constexpr std::uint32_t kArcForward = 1;
+inline constexpr std::uint32_t kArcBackward = 2;
+
+// The contraction's result, indexed by routing node: rank per node, upward arcs grouped by their
+// lower node. router/rank_layout.hpp rearranges it into the stored layout (router/HIERARCHY.md).
 struct ContractedGraph {
     std::vector<std::uint32_t> rank;
     std::vector<std::uint32_t> first_arc;

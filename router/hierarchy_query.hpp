@@ -4,8 +4,8 @@
 // target leaves (target, distance) in a bucket at every node it settles; a forward upward search
 // from each source scans the buckets of the nodes it settles. Starts and ends are sets of
 // weighted nodes (a stop mid-edge joins the graph at up to two nodes).
-// A HierarchySearch is a reusable workspace (labels reset rank by rank); one per thread. It works on ranks
-// (ContractionHierarchy numbers nodes by rank) and speaks routing nodes at its interface.
+// A HierarchySearch is a reusable workspace (labels reset rank by rank); one per thread. It works
+// on ranks (ContractionHierarchy numbers nodes by rank) and speaks routing nodes at its interface.
 
 #include "router/contraction_hierarchy.hpp"
 #include "router/dijkstra.hpp"
