@@ -1,6 +1,6 @@
 #include "router/road_network.hpp"
 
-#include "router/planners/disjoint_sets.hpp"
+#include "planners/networks/disjoint_sets.hpp"
 
 #include "common/input_error.hpp"
 
@@ -19,7 +19,7 @@ namespace ringroad::router {
 
 namespace {
 
-using planners::DisjointSets;
+using planners::networks::DisjointSets;
 using graph::SegmentId;
 using graph::VertexId;
 using PointId = std::uint32_t;   // a graph vertex, or vertex_count + site index

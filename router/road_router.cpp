@@ -1,11 +1,11 @@
 #include "router/road_router.hpp"
 
-#include "router/contraction_hierarchy.hpp"
+#include "common/input_error.hpp"
 #include "router/dijkstra.hpp"
-#include "router/hierarchy_query.hpp"
+#include "router/hierarchy/contraction_hierarchy.hpp"
+#include "router/hierarchy/hierarchy_query.hpp"
 #include "router/stop_endpoints.hpp"
 #include "router/weight_buffer.hpp"
-#include "common/input_error.hpp"
 
 #include <algorithm>
 #include <array>
@@ -147,7 +147,7 @@ struct RoadRouter::State {
     RoutingGraph routing_graph;
     RoadSnapper snapper;
     double top_speed = 0.0;
-    std::array<std::optional<ContractionHierarchy>, 2> hierarchies;
+    std::array<std::optional<hierarchy::ContractionHierarchy>, 2> hierarchies;
     std::array<bool, 2> stored{false, false};
     std::array<std::once_flag, 2> build_once;
 
@@ -158,16 +158,16 @@ struct RoadRouter::State {
         }
         for (Metric metric : {Metric::time, Metric::distance}) {
             const auto index = static_cast<std::size_t>(metric);
-            hierarchies[index] = ContractionHierarchy::from_sections(road_graph, routing_graph, metric);
+            hierarchies[index] = hierarchy::ContractionHierarchy::from_sections(road_graph, routing_graph, metric);
             stored[index] = hierarchies[index].has_value();
             if (stored[index]) std::call_once(build_once[index], [] {});
         }
     }
 
-    const ContractionHierarchy& hierarchy(Metric metric) {
+    const hierarchy::ContractionHierarchy& hierarchy(Metric metric) {
         const auto index = static_cast<std::size_t>(metric);
         std::call_once(build_once[index], [&] {
-            hierarchies[index] = ContractionHierarchy::build(routing_graph, metric);
+            hierarchies[index] = hierarchy::ContractionHierarchy::build(routing_graph, metric);
         });
         return *hierarchies[index];
     }
@@ -194,7 +194,7 @@ const RoutingGraph& RoadRouter::routing_graph() const noexcept { return state_->
 bool RoadRouter::has_stored_hierarchy(Metric metric) const { return state_->stored[static_cast<std::size_t>(metric)]; }
 
 bool RoadRouter::has_unusable_hierarchy(Metric metric) const {
-    return has_hierarchy_sections(state_->road_graph, metric) && !has_stored_hierarchy(metric);
+    return hierarchy::has_hierarchy_sections(state_->road_graph, metric) && !has_stored_hierarchy(metric);
 }
 double RoadRouter::top_speed_meters_per_second() const noexcept { return state_->top_speed; }
 
@@ -233,7 +233,7 @@ std::vector<PackedWeight> RoadRouter::matrix(const std::vector<SnappedStop>& sou
         std::vector<std::vector<WeightedNode>> starts, ends;
         for (const StopEndpoints& endpoints : from) starts.push_back(departure_nodes(endpoints, metric));
         for (const StopEndpoints& endpoints : to) ends.push_back(arrival_nodes(endpoints, metric));
-        result = hierarchy_many_to_many(state.hierarchy(metric), starts, ends, options_.threads);
+        result = hierarchy::hierarchy_many_to_many(state.hierarchy(metric), starts, ends, options_.threads);
     } else {
         result = make_weight_buffer(sources.size() * targets.size(), kUnreachableWeight);
         const ArrivalTargets arrivals = arrival_targets(to, metric);
@@ -289,7 +289,7 @@ std::optional<RoutePath> RoadRouter::route(const SnappedStop& from_stop, const S
     PackedWeight best = kUnreachableWeight;
     std::vector<NodeId> nodes;
     if (state.use_hierarchy(metric, engine)) {
-        HierarchySearch search(state.hierarchy(metric));
+        hierarchy::HierarchySearch search(state.hierarchy(metric));
         best = search.shortest(starts, ends, &nodes);
     } else {
         DijkstraWorkspace workspace(state.routing_graph.node_count());

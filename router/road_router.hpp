@@ -61,7 +61,7 @@ public:
     // Whether the graph file carried a hierarchy for `metric` (Engine::automatic picks it).
     bool has_stored_hierarchy(Metric metric) const;
     // Whether the file carries a hierarchy for `metric` that cannot be used: written in another
-    // layout version, for other restriction settings, or damaged (router/HIERARCHY.md).
+    // layout version, for other restriction settings, or damaged (router/hierarchy/HIERARCHY.md).
     bool has_unusable_hierarchy(Metric metric) const;
     // The fastest speed of any edge in m/s (a lower bound on travel time is distance / this).
     double top_speed_meters_per_second() const noexcept;

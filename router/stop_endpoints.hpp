@@ -7,7 +7,7 @@
 // reached along each allowed direction d: from any node with an allowed turn into d's edge,
 // paying the part of d's edge up to the stop. A stop is a standstill: a trip may leave it in
 // either allowed direction whichever way the vehicle came (a turn-around at a stop costs 0 s; see
-// router/HIERARCHY.md "Stops"). Two stops on the same segment are also joined directly when the
+// router/hierarchy/HIERARCHY.md "Stops"). Two stops on the same segment are also joined directly when the
 // direction from one to the other is allowed.
 //
 // A stop that snaps exactly onto a vertex (fraction 0 or 1) is a junction stop: it is reached by

@@ -8,21 +8,21 @@ std::size_t TravelMatrix::unreachable_count() const {
     return count;
 }
 
-planners::CostMatrix TravelMatrix::seconds_matrix() const {
-    planners::CostMatrix costs(size_);
+planners::matrices::CostMatrix TravelMatrix::seconds_matrix() const {
+    planners::matrices::CostMatrix costs(size_);
     for (std::size_t from = 0; from < size_; ++from) {
         for (std::size_t to = 0; to < size_; ++to) {
-            costs(from, to) = reachable(from, to) ? seconds(from, to) : planners::kMissingCost;
+            costs(from, to) = reachable(from, to) ? seconds(from, to) : planners::matrices::kMissingCost;
         }
     }
     return costs;
 }
 
-planners::CostMatrix TravelMatrix::meters_matrix() const {
-    planners::CostMatrix costs(size_);
+planners::matrices::CostMatrix TravelMatrix::meters_matrix() const {
+    planners::matrices::CostMatrix costs(size_);
     for (std::size_t from = 0; from < size_; ++from) {
         for (std::size_t to = 0; to < size_; ++to) {
-            costs(from, to) = reachable(from, to) ? meters(from, to) : planners::kMissingCost;
+            costs(from, to) = reachable(from, to) ? meters(from, to) : planners::matrices::kMissingCost;
         }
     }
     return costs;

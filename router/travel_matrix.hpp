@@ -3,8 +3,8 @@
 // and decimetres, asymmetric in general, with unreachable pairs marked (never a large number).
 // Row = from, column = to; the diagonal is 0.
 
+#include "planners/matrices/cost_matrix.hpp"
 #include "router/metric.hpp"
-#include "router/planners/cost_matrix.hpp"
 
 #include <cstddef>
 #include <cstdint>
@@ -41,10 +41,10 @@ public:
     std::size_t unreachable_count() const;
 
     // Seconds (Metric::time) or metres (Metric::distance) for the planners; unreachable pairs
-    // become planners::kMissingCost.
-    planners::CostMatrix seconds_matrix() const;
-    planners::CostMatrix meters_matrix() const;
-    planners::CostMatrix primary_cost_matrix() const {
+    // become planners::matrices::kMissingCost.
+    planners::matrices::CostMatrix seconds_matrix() const;
+    planners::matrices::CostMatrix meters_matrix() const;
+    planners::matrices::CostMatrix primary_cost_matrix() const {
         return metric_ == Metric::time ? seconds_matrix() : meters_matrix();
     }
 

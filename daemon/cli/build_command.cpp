@@ -8,7 +8,7 @@
 #include "daemon/cli/commands.hpp"
 #include "extract/road_extractor.hpp"
 #include "graph/graph_file.hpp"
-#include "router/contraction_hierarchy.hpp"
+#include "router/hierarchy/contraction_hierarchy.hpp"
 
 #include <CLI/CLI.hpp>
 
@@ -96,7 +96,7 @@ graph::RoadGraph build_graph_from_extract(const BuildArguments& arguments, Progr
 // The hierarchy is built once here rather than at every load: it is the slow part of
 // preparing a region, and every later command maps it from the file.
 graph::RoadGraph add_contraction_hierarchy(const graph::RoadGraph& graph, Progress& progress) {
-    auto sections = router::build_hierarchy_sections(graph, router::RestrictionPolicy::automatic, &progress);
+    auto sections = router::hierarchy::build_hierarchy_sections(graph, router::RestrictionPolicy::automatic, &progress);
     progress.finish();
     return graph::attach_sections(graph, std::move(sections));
 }

@@ -6,7 +6,7 @@
 #include "daemon/cli/commands.hpp"
 #include "daemon/cli/output.hpp"
 #include "graph/graph_file.hpp"
-#include "router/contraction_hierarchy.hpp"
+#include "router/hierarchy/contraction_hierarchy.hpp"
 #include "router/routing_graph.hpp"
 
 #include <CLI/CLI.hpp>
@@ -43,9 +43,9 @@ HierarchyReport check_hierarchies(const graph::RoadGraph& graph) {
     HierarchyReport report;
     std::optional<router::RoutingGraph> routing_graph;
     for (const router::Metric metric : {router::Metric::time, router::Metric::distance}) {
-        if (!router::has_hierarchy_sections(graph, metric)) continue;
+        if (!router::hierarchy::has_hierarchy_sections(graph, metric)) continue;
         if (!routing_graph) routing_graph.emplace(graph, router::RestrictionPolicy::automatic);
-        const bool usable = router::ContractionHierarchy::from_sections(graph, *routing_graph, metric).has_value();
+        const bool usable = router::hierarchy::ContractionHierarchy::from_sections(graph, *routing_graph, metric).has_value();
         (usable ? report.usable : report.unusable).emplace_back(router::metric_name(metric));
     }
     return report;

@@ -14,8 +14,8 @@
 #include "common/safety_notice.hpp"
 #include "daemon/cli/commands.hpp"
 #include "daemon/cli/output.hpp"
-#include "daemon/cli/unusable_hierarchy_note.hpp"
 #include "daemon/cli/snap_radius_option.hpp"
+#include "daemon/cli/unusable_hierarchy_note.hpp"
 #include "graph/graph_file.hpp"
 #include "router/road_router.hpp"
 

@@ -17,10 +17,10 @@
 #include "daemon/cli/output.hpp"
 #include "daemon/cli/snap_radius_option.hpp"
 #include "graph/graph_file.hpp"
-#include "router/planners/matrix_csv.hpp"
-#include "router/planners/matrix_diagnostics.hpp"
-#include "router/planners/metric_closure.hpp"
-#include "router/planners/spanning_tree.hpp"
+#include "planners/matrices/matrix_csv.hpp"
+#include "planners/matrices/matrix_diagnostics.hpp"
+#include "planners/matrices/metric_closure.hpp"
+#include "planners/networks/spanning_tree.hpp"
 #include "router/road_network.hpp"
 #include "router/road_router.hpp"
 
@@ -63,20 +63,20 @@ double tidy(double value) {
 json position(const graph::Coordinate& point) { return json::array({point.lon(), point.lat()}); }
 
 json matrix_network_json(const NetworkOptions& options) {
-    planners::LabelledMatrix matrix = planners::read_matrix_csv(options.matrix);
-    const planners::MatrixDiagnostics diagnostics = planners::diagnose_matrix(matrix.costs);
+    planners::matrices::LabelledMatrix matrix = planners::matrices::read_matrix_csv(options.matrix);
+    const planners::matrices::MatrixDiagnostics diagnostics = planners::matrices::diagnose_matrix(matrix.costs);
     json closure = {{"used", options.metric_closure}};
     if (options.metric_closure) {
-        planners::MetricClosure closed = planners::metric_closure(matrix.costs);
+        planners::matrices::MetricClosure closed = planners::matrices::metric_closure(matrix.costs);
         closure["entries_shortened"] = closed.entries_shortened;
         closure["entries_filled"] = closed.entries_filled;
         closure["note"] = "link costs are over the metric closure (Floyd–Warshall): a link's cost is the cheapest "
                           "chain of entries between its stops";
         matrix.costs = std::move(closed.costs);
     }
-    const auto rule = options.link_cost == "dearer" ? planners::LinkCostRule::dearer_direction
-                                                    : planners::LinkCostRule::cheaper_direction;
-    const planners::SpanningForest tree = planners::minimum_spanning_tree(matrix, rule);
+    const auto rule = options.link_cost == "dearer" ? planners::networks::LinkCostRule::dearer_direction
+                                                    : planners::networks::LinkCostRule::cheaper_direction;
+    const planners::networks::SpanningForest tree = planners::networks::minimum_spanning_tree(matrix, rule);
     json links = json::array();
     for (const auto& link : tree.links) {
         links.push_back({{"from", matrix.ids[link.from]}, {"to", matrix.ids[link.to]}, {"cost", tidy(link.cost)}});
@@ -85,7 +85,7 @@ json matrix_network_json(const NetworkOptions& options) {
             {"method", "kruskal minimum spanning tree"},
             {"links", links},
             {"cost", tidy(tree.cost)},
-            {"link_cost_rule", std::string(planners::link_cost_rule_name(rule)) +
+            {"link_cost_rule", std::string(planners::networks::link_cost_rule_name(rule)) +
                                    (diagnostics.symmetric ? " (the matrix is symmetric: the rule changes nothing)"
                                                           : " (the matrix is asymmetric)")},
             {"symmetric", diagnostics.symmetric},

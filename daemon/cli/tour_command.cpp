@@ -12,13 +12,13 @@
 #include "common/safety_notice.hpp"
 #include "daemon/cli/commands.hpp"
 #include "daemon/cli/output.hpp"
-#include "daemon/cli/unusable_hierarchy_note.hpp"
 #include "daemon/cli/snap_radius_option.hpp"
+#include "daemon/cli/unusable_hierarchy_note.hpp"
 #include "graph/graph_file.hpp"
-#include "router/planners/matrix_csv.hpp"
-#include "router/planners/matrix_diagnostics.hpp"
-#include "router/planners/metric_closure.hpp"
-#include "router/planners/tour_planner.hpp"
+#include "planners/matrices/matrix_csv.hpp"
+#include "planners/matrices/matrix_diagnostics.hpp"
+#include "planners/matrices/metric_closure.hpp"
+#include "planners/tours/tour_planner.hpp"
 #include "router/road_router.hpp"
 
 #include <CLI/CLI.hpp>
@@ -58,7 +58,7 @@ struct TourOptions {
 // The stops and what a hop between them costs: a bare matrix, or travel times on a road graph
 // (then `router`, `stops`, `snapped` and `travel` are set, and metres are known for every hop).
 struct TourInput {
-    planners::LabelledMatrix matrix;
+    planners::matrices::LabelledMatrix matrix;
     std::unique_ptr<router::RoadRouter> router;
     router::StopList stops;          // with any further columns (name, ...), echoed in CSV/GeoJSON
     std::vector<router::SnappedStop> snapped;
@@ -69,7 +69,7 @@ struct TourInput {
 TourInput load_input(const TourOptions& options) {
     TourInput input;
     if (!options.matrix.empty()) {
-        input.matrix = planners::read_matrix_csv(options.matrix);
+        input.matrix = planners::matrices::read_matrix_csv(options.matrix);
         return input;
     }
     input.stops = router::read_stops_csv(options.stops);
@@ -84,7 +84,7 @@ TourInput load_input(const TourOptions& options) {
     return input;
 }
 
-std::size_t index_of(const planners::LabelledMatrix& matrix, const std::string& id, const char* option,
+std::size_t index_of(const planners::matrices::LabelledMatrix& matrix, const std::string& id, const char* option,
                      const std::string& source) {
     for (std::size_t i = 0; i < matrix.ids.size(); ++i) {
         if (matrix.ids[i] == id) return i;
@@ -93,7 +93,7 @@ std::size_t index_of(const planners::LabelledMatrix& matrix, const std::string& 
 }
 
 // A stop nothing leaves or nothing reaches makes every tour impossible; say which one.
-void check_every_stop_connected(const planners::LabelledMatrix& matrix) {
+void check_every_stop_connected(const planners::matrices::LabelledMatrix& matrix) {
     const std::size_t size = matrix.costs.size();
     if (size < 2) return;
     for (std::size_t stop = 0; stop < size; ++stop) {
@@ -109,31 +109,31 @@ void check_every_stop_connected(const planners::LabelledMatrix& matrix) {
     }
 }
 
-planners::TourRequest make_request(const TourOptions& options, const planners::LabelledMatrix& matrix,
+planners::tours::TourRequest make_request(const TourOptions& options, const planners::matrices::LabelledMatrix& matrix,
                                    const std::string& source) {
-    planners::TourRequest request;
+    planners::tours::TourRequest request;
     if (!options.start.empty()) request.start = index_of(matrix, options.start, "--start", source);
     if (options.open) {
-        request.shape = planners::TripShape::open_free_end;
+        request.shape = planners::tours::TripShape::open_free_end;
     } else if (!options.end.empty()) {
         request.end = index_of(matrix, options.end, "--end", source);
         // Ending where it started is a closed tour.
-        if (request.end != request.start) request.shape = planners::TripShape::open_fixed_end;
+        if (request.end != request.start) request.shape = planners::tours::TripShape::open_fixed_end;
     }
     request.time_limit_seconds = options.time_limit;
     request.seed = options.seed;
     request.exact_limit = options.exact_limit;
-    request.method = options.method == "tree-doubling" ? planners::TourMethod::tree_doubling
-                                                       : planners::TourMethod::automatic;
+    request.method = options.method == "tree-doubling" ? planners::tours::TourMethod::tree_doubling
+                                                       : planners::tours::TourMethod::automatic;
     request.stop_labels = matrix.ids;   // so the planner's messages name stops by id
     return request;
 }
 
-std::string trip_shape_name(planners::TripShape shape) {
+std::string trip_shape_name(planners::tours::TripShape shape) {
     switch (shape) {
-    case planners::TripShape::closed: return "closed";
-    case planners::TripShape::open_fixed_end: return "open, fixed end";
-    case planners::TripShape::open_free_end: return "open, free end";
+    case planners::tours::TripShape::closed: return "closed";
+    case planners::tours::TripShape::open_fixed_end: return "open, fixed end";
+    case planners::tours::TripShape::open_free_end: return "open, free end";
     }
     return "closed";
 }
@@ -156,7 +156,7 @@ std::string format_significant(double value, int digits) {
     return buffer;
 }
 
-json diagnostics_json(const planners::MatrixDiagnostics& report, const std::vector<std::string>& ids) {
+json diagnostics_json(const planners::matrices::MatrixDiagnostics& report, const std::vector<std::string>& ids) {
     json missing = json::array();
     for (const auto& pair : report.missing_examples) missing.push_back({{"from", ids[pair.from]}, {"to", ids[pair.to]}});
     json asymmetric = json::array();
@@ -184,10 +184,10 @@ json diagnostics_json(const planners::MatrixDiagnostics& report, const std::vect
 }
 
 struct PlannedTour {
-    planners::TourResult result;
-    planners::MatrixDiagnostics diagnostics;
-    std::optional<planners::MetricClosure> closure;
-    planners::TripShape shape = planners::TripShape::closed;
+    planners::tours::TourResult result;
+    planners::matrices::MatrixDiagnostics diagnostics;
+    std::optional<planners::matrices::MetricClosure> closure;
+    planners::tours::TripShape shape = planners::tours::TripShape::closed;
 };
 
 // The visits as (from, to) index pairs: a closed tour returns to its start.
@@ -195,7 +195,7 @@ std::vector<std::pair<std::size_t, std::size_t>> hop_pairs(const PlannedTour& to
     const auto& order = tour.result.order;
     std::vector<std::pair<std::size_t, std::size_t>> hops;
     for (std::size_t i = 0; i + 1 < order.size(); ++i) hops.push_back({order[i], order[i + 1]});
-    if (tour.shape == planners::TripShape::closed && order.size() > 1) hops.push_back({order.back(), order.front()});
+    if (tour.shape == planners::tours::TripShape::closed && order.size() > 1) hops.push_back({order.back(), order.front()});
     return hops;
 }
 
@@ -412,16 +412,16 @@ void run_tour(const TourOptions& options) {
     TourInput input = load_input(options);
     const std::string source = options.matrix.empty() ? options.stops : options.matrix;
     PlannedTour tour;
-    tour.diagnostics = planners::diagnose_matrix(input.matrix.costs);
-    planners::CostMatrix planning_costs = input.matrix.costs;
+    tour.diagnostics = planners::matrices::diagnose_matrix(input.matrix.costs);
+    planners::matrices::CostMatrix planning_costs = input.matrix.costs;
     if (options.metric_closure) {
-        tour.closure = planners::metric_closure(input.matrix.costs);
+        tour.closure = planners::matrices::metric_closure(input.matrix.costs);
         planning_costs = tour.closure->costs;
     }
-    const planners::TourRequest request = make_request(options, input.matrix, source);
+    const planners::tours::TourRequest request = make_request(options, input.matrix, source);
     tour.shape = request.shape;
     check_every_stop_connected({input.matrix.ids, planning_costs});
-    tour.result = planners::plan_tour(planning_costs, request);
+    tour.result = planners::tours::plan_tour(planning_costs, request);
 
     std::string text;
     if (options.format == "csv") {

@@ -2,7 +2,7 @@
 // shapes, engines agreeing, unreachable pairs, outputs written whole or not at all, and bad input.
 #include "common/safety_notice.hpp"
 #include "graph/graph_file.hpp"
-#include "router/contraction_hierarchy.hpp"
+#include "router/hierarchy/contraction_hierarchy.hpp"
 #include "tests/router/test_graphs.hpp"
 #include "tests/support/run_command.hpp"
 
@@ -32,7 +32,7 @@ const Town& town() {
         result.region = result.folder + "/town.rrg";
         result.region_with_hierarchy = result.folder + "/town-ch.rrg";
         graph::write_road_graph(graph, result.region);
-        graph::write_road_graph(graph::attach_sections(graph, router::build_hierarchy_sections(graph)),
+        graph::write_road_graph(graph::attach_sections(graph, router::hierarchy::build_hierarchy_sections(graph)),
                                 result.region_with_hierarchy);
         result.stops = result.folder + "/stops.csv";
         // a: south-west corner; b: mid Row Street 1; c: north-east corner; spur: on Spur Lane.
@@ -157,7 +157,7 @@ TEST_CASE("matrix refuses bad input with one line, exit 1, and no output file", 
 }
 
 TEST_CASE("matrix notes a stored hierarchy it cannot use, and answers exactly without it", "[cli][matrix]") {
-    // The town's file with its time hierarchy marked as layout version 1 (router/HIERARCHY.md),
+    // The town's file with its time hierarchy marked as layout version 1 (router/hierarchy/HIERARCHY.md),
     // as a file written by an older ringroad would be.
     const graph::RoadGraph graph = graph::load_road_graph(town().region_with_hierarchy);
     const auto header = graph.section("ch.t.header");

@@ -2,7 +2,7 @@
 // kruskal_minimum_spanning_tree on the same matrices (TSPLIB 95 instances burma14, gr17 and the
 // asymmetric br17, ftv33), and the real extract fixtures/osm/monaco.osm.pbf (© OpenStreetMap
 // contributors, ODbL 1.0) with the Kou–Markowsky–Berman guarantee (network <= sum of links).
-#include "router/planners/matrix_csv.hpp"
+#include "planners/matrices/matrix_csv.hpp"
 #include "tests/support/run_command.hpp"
 #include "tests/support/tsplib_reader.hpp"
 
@@ -18,15 +18,15 @@
 #include <set>
 
 using nlohmann::json;
-using ringroad::planners::CostMatrix;
+using ringroad::planners::matrices::CostMatrix;
 using ringroad::test::fixture_path;
 using ringroad::test::run_ringroad;
 
 namespace {
 
-ringroad::planners::LabelledMatrix tsplib_matrix(const std::string& relative) {
+ringroad::planners::matrices::LabelledMatrix tsplib_matrix(const std::string& relative) {
     const auto instance = ringroad::test::read_tsplib_file(fixture_path("tsplib/" + relative));
-    ringroad::planners::LabelledMatrix matrix{{}, instance.costs};
+    ringroad::planners::matrices::LabelledMatrix matrix{{}, instance.costs};
     for (std::size_t i = 0; i < instance.costs.size(); ++i) {
         std::string id = "c";   // appended: GCC 12 warns falsely on "c" + std::string
         id += std::to_string(i + 1);
@@ -66,7 +66,7 @@ TEST_CASE("network --matrix: the spanning tree weighs what Boost's Kruskal says,
         INFO(relative);
         const auto matrix = tsplib_matrix(relative);
         const std::string path = folder + "/m.csv";
-        ringroad::planners::write_matrix_csv(matrix, path);
+        ringroad::planners::matrices::write_matrix_csv(matrix, path);
         for (const bool dearer : {false, true}) {
             const auto result = run_ringroad({"network", "--matrix", path, "--link-cost", dearer ? "dearer" : "cheaper"});
             REQUIRE(result.exit_code == 0);

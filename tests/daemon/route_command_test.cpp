@@ -3,7 +3,7 @@
 #include "common/safety_notice.hpp"
 #include "graph/graph_file.hpp"
 #include "graph/haversine.hpp"
-#include "router/contraction_hierarchy.hpp"
+#include "router/hierarchy/contraction_hierarchy.hpp"
 #include "tests/router/test_graphs.hpp"
 #include "tests/support/run_command.hpp"
 
@@ -19,7 +19,7 @@ const std::string& region() {
     static const std::string path = [] {
         const std::string folder = test::make_scratch_dir("route-cli");
         const graph::RoadGraph graph = test::small_test_town(/*trap_spur=*/true);
-        graph::write_road_graph(graph::attach_sections(graph, router::build_hierarchy_sections(graph)), folder + "/town.rrg");
+        graph::write_road_graph(graph::attach_sections(graph, router::hierarchy::build_hierarchy_sections(graph)), folder + "/town.rrg");
         return folder + "/town.rrg";
     }();
     return path;

@@ -2,7 +2,7 @@
 // TSPLIB 95 (fixtures/tsplib/*/optimal.txt: burma14 = 3323, ulysses16 = 6859, gr17 = 2085,
 // br17 = 39, eil51 = 426), brute force over all orders for small open trips, and the real
 // OpenStreetMap extract fixtures/osm/monaco.osm.pbf (© OpenStreetMap contributors, ODbL 1.0).
-#include "router/planners/matrix_csv.hpp"
+#include "planners/matrices/matrix_csv.hpp"
 #include "tests/support/run_command.hpp"
 #include "tests/support/tsplib_reader.hpp"
 
@@ -23,7 +23,7 @@ namespace {
 // A TSPLIB instance as MATRIX.csv with ids c1..cN (TSPLIB city numbers), diagonal 0.
 std::string tsplib_matrix_csv(const std::string& folder, const std::string& relative, const std::string& name) {
     const auto instance = ringroad::test::read_tsplib_file(fixture_path("tsplib/" + relative));
-    ringroad::planners::LabelledMatrix matrix{{}, instance.costs};
+    ringroad::planners::matrices::LabelledMatrix matrix{{}, instance.costs};
     for (std::size_t i = 0; i < instance.costs.size(); ++i) {
         std::string id = "c";   // built by appending: GCC 12 warns falsely on "c" + std::string
         id += std::to_string(i + 1);
@@ -31,7 +31,7 @@ std::string tsplib_matrix_csv(const std::string& folder, const std::string& rela
         matrix.costs(i, i) = 0.0;
     }
     const std::string path = folder + "/" + name + ".csv";
-    ringroad::planners::write_matrix_csv(matrix, path);
+    ringroad::planners::matrices::write_matrix_csv(matrix, path);
     return path;
 }
 
@@ -109,12 +109,12 @@ TEST_CASE("tour --start keeps the optimum of a closed tour and starts there; --e
 TEST_CASE("tour --open: free end equals brute force over all orders") {
     const std::string folder = ringroad::test::make_scratch_dir("tour-open");
     // Seven stops on a line with one-way penalties: asymmetric, small enough to enumerate.
-    ringroad::planners::LabelledMatrix matrix{{"a", "b", "c", "d", "e", "f", "g"}, ringroad::planners::CostMatrix(7)};
+    ringroad::planners::matrices::LabelledMatrix matrix{{"a", "b", "c", "d", "e", "f", "g"}, ringroad::planners::matrices::CostMatrix(7)};
     for (std::size_t i = 0; i < 7; ++i)
         for (std::size_t j = 0; j < 7; ++j)
             if (i != j) matrix.costs(i, j) = std::abs(static_cast<double>(i * i) - static_cast<double>(j * j)) + (i < j ? 3.0 : 1.0) + static_cast<double>((i * 5 + j * 3) % 7);
     const std::string path = folder + "/line.csv";
-    ringroad::planners::write_matrix_csv(matrix, path);
+    ringroad::planners::matrices::write_matrix_csv(matrix, path);
     std::vector<std::size_t> rest{1, 2, 3, 4, 5, 6};
     double best = 1e300;
     do {

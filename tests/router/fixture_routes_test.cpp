@@ -174,7 +174,7 @@ TEST_CASE("U-turns happen only at dead ends", "[fixtures]") {
 }
 
 TEST_CASE("A stop is a standstill: a turn-around there can beat a restricted junction", "[fixtures][triangle]") {
-    // The documented rule (router/HIERARCHY.md, "Stops"): a trip may leave a stop either way its
+    // The documented rule (router/hierarchy/HIERARCHY.md, "Stops"): a trip may leave a stop either way its
     // road allows, so the triangle inequality can fail through a stop where a vehicle turns
     // round: south arm -> north arm (straight on), then north arm -> west arm (turn round at the
     // stop, right turn) is shorter than the direct trip, whose left turn is forbidden.

@@ -2,13 +2,13 @@
 // (© OpenStreetMap contributors, ODbL 1.0), read by the project's extractor:
 //  * our Dijkstra equals the Boost Graph Library's dijkstra_shortest_paths (outside reference);
 //  * the contraction hierarchy equals Dijkstra exactly (point-to-point and whole matrices);
-//  * the triangle inequality on matrices (see router/HIERARCHY.md, "Stops");
+//  * the triangle inequality on matrices (see router/hierarchy/HIERARCHY.md, "Stops");
 //  * travel time >= straight-line (haversine) distance / the graph's top speed.
 #include "extract/road_extractor.hpp"
 #include "graph/haversine.hpp"
-#include "router/contraction_hierarchy.hpp"
 #include "router/dijkstra.hpp"
-#include "router/hierarchy_query.hpp"
+#include "router/hierarchy/contraction_hierarchy.hpp"
+#include "router/hierarchy/hierarchy_query.hpp"
 #include "router/road_router.hpp"
 #include "tests/router/bgl_reference.hpp"
 #include "tests/support/run_command.hpp"
@@ -20,6 +20,7 @@
 
 using namespace ringroad;
 using namespace ringroad::router;
+using namespace ringroad::router::hierarchy;
 
 namespace {
 
@@ -115,7 +116,7 @@ TEST_CASE("Real extracts: hierarchy equals Dijkstra on thousands of pairs and wh
 }
 
 TEST_CASE("Real extracts: the triangle inequality holds on time matrices without restrictions", "[real][triangle]") {
-    // Junction stops and mid-edge stops alike (router/HIERARCHY.md, "Stops": turn-around at a
+    // Junction stops and mid-edge stops alike (router/hierarchy/HIERARCHY.md, "Stops": turn-around at a
     // stop allowed at 0 s, U-turns at junctions only at dead ends). With turn restrictions a
     // stop may legally bypass a forbidden turn; fixture_routes_test.cpp shows that case.
     RouterOptions options;

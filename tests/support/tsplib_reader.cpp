@@ -42,7 +42,7 @@ double geographic_radians(double coordinate) {
     return pi * (degrees + 5.0 * minutes / 3.0) / 180.0;
 }
 
-void fill_explicit(planners::CostMatrix& costs, const Header& header, std::istream& numbers,
+void fill_explicit(planners::matrices::CostMatrix& costs, const Header& header, std::istream& numbers,
                    const std::string& source) {
     const std::size_t n = header.dimension;
     auto next = [&](std::size_t row, std::size_t column) {
@@ -76,7 +76,7 @@ void fill_explicit(planners::CostMatrix& costs, const Header& header, std::istre
     for (std::size_t i = 0; i < n; ++i) costs(i, i) = 0.0;
 }
 
-void fill_from_coordinates(planners::CostMatrix& costs, const Header& header, std::istream& lines,
+void fill_from_coordinates(planners::matrices::CostMatrix& costs, const Header& header, std::istream& lines,
                            const std::string& source) {
     const std::size_t n = header.dimension;
     std::vector<double> x(n), y(n);
@@ -157,7 +157,7 @@ TsplibInstance parse_tsplib(std::string_view text, const std::string& source) {
             if (header.dimension == 0) throw InputError(source + ": " + keyword + " before DIMENSION");
             if (header.type != "TSP" && header.type != "ATSP")
                 throw InputError(source + ": TYPE '" + header.type + "' is not TSP or ATSP");
-            if (instance.costs.size() == 0) instance.costs = planners::CostMatrix(header.dimension, 0.0);
+            if (instance.costs.size() == 0) instance.costs = planners::matrices::CostMatrix(header.dimension, 0.0);
             if (keyword == "NODE_COORD_SECTION") fill_from_coordinates(instance.costs, header, in, source);
             else fill_explicit(instance.costs, header, in, source);
             have_weights = true;

@@ -6,7 +6,7 @@
 // integers defined by the TSPLIB documentation, so tour lengths compare exactly with published
 // values. Malformed input throws ringroad::InputError naming the file and the problem.
 
-#include "router/planners/cost_matrix.hpp"
+#include "planners/matrices/cost_matrix.hpp"
 
 #include <map>
 #include <string>
@@ -17,7 +17,7 @@ namespace ringroad::test {
 struct TsplibInstance {
     std::string name;
     bool asymmetric = false;          // TYPE: ATSP
-    planners::CostMatrix costs;
+    planners::matrices::CostMatrix costs;
 };
 
 TsplibInstance read_tsplib_file(const std::string& path);
