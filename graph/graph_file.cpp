@@ -2,12 +2,13 @@
 
 #include "common/atomic_file.hpp"
 #include "common/input_error.hpp"
+#include "graph/checksum.hpp"
+#include "graph/consistency_check.hpp"
 
 #include <fcntl.h>
 #include <sys/mman.h>
 #include <sys/stat.h>
 #include <unistd.h>
-#include <zlib.h>
 
 #include <algorithm>
 #include <bit>
@@ -36,32 +37,34 @@ struct FileHeader {
     std::uint32_t section_count;
     std::uint64_t file_size;
     std::uint64_t section_table_offset;
-    std::uint32_t section_table_crc;
-    std::uint8_t reserved[24];
-    std::uint32_t header_crc;     // CRC32 of the 60 bytes before it (offset 60)
+    std::uint64_t section_table_checksum;
+    std::uint8_t reserved[16];
+    std::uint64_t header_checksum;  // of the 56 bytes before it
 };
-static_assert(sizeof(FileHeader) == kHeaderSize && offsetof(FileHeader, header_crc) == 60);
+static_assert(sizeof(FileHeader) == kHeaderSize && offsetof(FileHeader, header_checksum) == 56);
+
+// Format version 1 kept the header's CRC32 at offset 60 and had 40-byte table entries; only its
+// version field is read now, to say that the file must be rebuilt.
+constexpr std::uint32_t kLastCrc32Version = 1;
 
 struct SectionEntry {
-    char tag[kTagSize];           // NUL-padded
+    char tag[kTagSize];             // NUL-padded
     std::uint64_t offset;
-    std::uint64_t size;           // bytes
-    std::uint32_t crc;            // CRC32 of the section's bytes
-    std::uint32_t element_size;   // bytes per element (1 for text and opaque sections)
+    std::uint64_t size;             // bytes
+    std::uint64_t checksum;         // of the section's bytes
+    std::uint32_t element_size;     // bytes per element (1 for text and opaque sections)
+    std::uint32_t reserved;
 };
-static_assert(sizeof(SectionEntry) == 40);
+static_assert(sizeof(SectionEntry) == 48);
 
-std::uint32_t crc_of(const void* data, std::size_t size) {
-    // zlib's crc32 takes a uInt length: feed large sections in chunks.
-    uLong crc = crc32(0L, Z_NULL, 0);
-    const auto* bytes = static_cast<const Bytef*>(data);
-    while (size > 0) {
-        const auto chunk = static_cast<uInt>(std::min<std::size_t>(size, 1u << 30));
-        crc = crc32(crc, bytes, chunk);
-        bytes += chunk;
-        size -= chunk;
-    }
-    return static_cast<std::uint32_t>(crc);
+std::uint64_t checksum_of(const void* data, std::size_t size) { return section_checksum(data, size); }
+
+const char* file_kind(mode_t mode) {
+    if (S_ISDIR(mode)) return "a directory";
+    if (S_ISFIFO(mode)) return "a named pipe (FIFO)";
+    if (S_ISSOCK(mode)) return "a socket";
+    if (S_ISCHR(mode) || S_ISBLK(mode)) return "a device";
+    return "not a regular file";
 }
 
 struct PendingSection {
@@ -137,7 +140,7 @@ void write_road_graph(const RoadGraph& graph, const std::string& path) {
         std::memcpy(entry.tag, sections[i].tag.data(), sections[i].tag.size());
         entry.offset = file.position();
         entry.size = sections[i].size;
-        entry.crc = crc_of(sections[i].data, sections[i].size);
+        entry.checksum = checksum_of(sections[i].data, sections[i].size);
         entry.element_size = sections[i].element_size;
         file.write(sections[i].data, sections[i].size);
     }
@@ -148,8 +151,8 @@ void write_road_graph(const RoadGraph& graph, const std::string& path) {
     header.section_count = static_cast<std::uint32_t>(table.size());
     header.file_size = file.position();
     header.section_table_offset = kHeaderSize;
-    header.section_table_crc = crc_of(table.data(), table.size() * sizeof(SectionEntry));
-    header.header_crc = crc_of(&header, offsetof(FileHeader, header_crc));
+    header.section_table_checksum = checksum_of(table.data(), table.size() * sizeof(SectionEntry));
+    header.header_checksum = checksum_of(&header, offsetof(FileHeader, header_checksum));
     file.write_at(kHeaderSize, table.data(), table.size() * sizeof(SectionEntry));
     file.write_at(0, &header, sizeof header);
     file.commit();
@@ -171,12 +174,17 @@ private:
     [[noreturn]] void fail(const std::string& problem) const { throw InputError(path_ + ": " + problem); }
 
     void map_file() {
-        const int descriptor = ::open(path_.c_str(), O_RDONLY | O_CLOEXEC);
-        if (descriptor < 0) fail(std::string("cannot open: ") + std::strerror(errno));
+        // Refuse anything but a regular file before opening it (opening a FIFO for reading
+        // waits for a writer); O_NONBLOCK and the second look close the gap between the two.
         struct stat status {};
+        if (::stat(path_.c_str(), &status) == 0 && !S_ISREG(status.st_mode)) {
+            fail(std::string("is ") + file_kind(status.st_mode) + ", not a region graph file");
+        }
+        const int descriptor = ::open(path_.c_str(), O_RDONLY | O_CLOEXEC | O_NONBLOCK);
+        if (descriptor < 0) fail(std::string("cannot open: ") + std::strerror(errno));
         if (::fstat(descriptor, &status) != 0 || !S_ISREG(status.st_mode)) {
             ::close(descriptor);
-            fail("not a regular file");
+            fail(std::string("is ") + file_kind(status.st_mode) + ", not a region graph file");
         }
         size_ = static_cast<std::size_t>(status.st_size);
         if (size_ < kHeaderSize) {
@@ -196,13 +204,16 @@ private:
     const FileHeader& check_header() {
         const auto& header = *reinterpret_cast<const FileHeader*>(base_);
         if (std::memcmp(header.magic, kMagic, sizeof kMagic) != 0) fail("not a ringroad region graph (bad magic)");
-        if (header.header_crc != crc_of(&header, offsetof(FileHeader, header_crc))) {
-            fail("corrupt header (checksum mismatch)");
+        const bool intact = header.header_checksum == checksum_of(&header, offsetof(FileHeader, header_checksum));
+        // An older version's header is checksummed differently: its version field is believed
+        // as long as it names a version that existed.
+        if (header.format_version != kGraphFormatVersion &&
+            (intact || (header.format_version >= 1 && header.format_version <= kLastCrc32Version))) {
+            fail("region graph format version " + std::to_string(header.format_version) +
+                 ", which this ringroad does not read (it reads version " + std::to_string(kGraphFormatVersion) +
+                 "); rebuild the file from its extract with `ringroad build`");
         }
-        if (header.format_version != kGraphFormatVersion) {
-            fail("format version " + std::to_string(header.format_version) + " (this build reads version " +
-                 std::to_string(kGraphFormatVersion) + "); rebuild it with `ringroad build`");
-        }
+        if (!intact) fail("corrupt header (checksum mismatch)");
         if (header.file_size != size_) {
             fail("truncated or extended: header says " + std::to_string(header.file_size) + " bytes, file has " +
                  std::to_string(size_));
@@ -211,7 +222,7 @@ private:
         if (header.section_table_offset != kHeaderSize || kHeaderSize + table_bytes > size_) {
             fail("corrupt section table");
         }
-        if (header.section_table_crc != crc_of(base_ + kHeaderSize, table_bytes)) {
+        if (header.section_table_checksum != checksum_of(base_ + kHeaderSize, table_bytes)) {
             fail("corrupt section table (checksum mismatch)");
         }
         return header;
@@ -219,32 +230,49 @@ private:
 
     void read_table(const FileHeader& header) {
         const auto* entries = reinterpret_cast<const SectionEntry*>(base_ + kHeaderSize);
+        const std::uint64_t table_end = kHeaderSize + std::uint64_t(header.section_count) * sizeof(SectionEntry);
         for (std::uint32_t i = 0; i < header.section_count; ++i) {
             const SectionEntry& entry = entries[i];
-            const std::string tag(entry.tag, strnlen(entry.tag, kTagSize));
-            if (entry.offset % kAlignment != 0 || entry.offset > size_ || entry.size > size_ - entry.offset) {
-                fail("section '" + tag + "' lies outside the file");
+            const std::size_t tag_length = strnlen(entry.tag, kTagSize);
+            if (tag_length == 0 || tag_length == kTagSize) {
+                fail("section table entry " + std::to_string(i) + " has no tag of 1 to 15 bytes");
+            }
+            const std::string tag(entry.tag, tag_length);
+            if (std::any_of(sections_.begin(), sections_.end(), [&](const auto& s) { return s.first == tag; })) {
+                fail("section '" + tag + "' appears twice");
+            }
+            if (entry.offset % kAlignment != 0 || entry.offset < table_end || entry.offset > size_ ||
+                entry.size > size_ - entry.offset) {
+                fail("section '" + tag + "' does not lie between the section table and the end of the file");
             }
             if (entry.element_size == 0 || entry.size % entry.element_size != 0) {
                 fail("section '" + tag + "' has a size that is not a whole number of elements");
             }
             const std::span<const std::byte> bytes(base_ + entry.offset, entry.size);
-            if (entry.crc != crc_of(bytes.data(), bytes.size())) fail("checksum mismatch in section '" + tag + "'");
+            if (entry.checksum != checksum_of(bytes.data(), bytes.size())) {
+                fail("checksum mismatch in section '" + tag + "'");
+            }
             sections_.emplace_back(tag, bytes);
+            element_sizes_.push_back(entry.element_size);
         }
     }
 
-    std::span<const std::byte> required(std::string_view tag) const {
-        for (const auto& [section_tag, bytes] : sections_) {
-            if (section_tag == tag) return bytes;
+    // A core section whose table entry states `element_size` bytes per record.
+    std::span<const std::byte> required(std::string_view tag, std::uint32_t element_size = 1) const {
+        for (std::size_t i = 0; i < sections_.size(); ++i) {
+            if (sections_[i].first != tag) continue;
+            if (element_sizes_[i] != element_size) {
+                fail("section '" + std::string(tag) + "' has records of " + std::to_string(element_sizes_[i]) +
+                     " bytes, not " + std::to_string(element_size));
+            }
+            return sections_[i].second;
         }
         fail("missing section '" + std::string(tag) + "'");
     }
 
     template <typename T>
     std::span<const T> typed(std::string_view tag) const {
-        const auto bytes = required(tag);
-        if (bytes.size() % sizeof(T) != 0) fail("section '" + std::string(tag) + "' has the wrong element size");
+        const auto bytes = required(tag, sizeof(T));
         return {reinterpret_cast<const T*>(bytes.data()), bytes.size() / sizeof(T)};
     }
 
@@ -263,13 +291,9 @@ private:
         const auto meta = required("meta");
         graph.metadata_ = parse_metadata(std::string_view(reinterpret_cast<const char*>(meta.data()), meta.size()));
 
-        const std::size_t n = graph.coordinates_.size();
-        if (graph.vertex_osm_ids_.size() != n || graph.components_.size() != n || graph.first_out_.size() != n + 1 ||
-            graph.first_out_.back() != graph.edges_.size()) {
-            fail("inconsistent section sizes");
-        }
         const std::string components = graph.metadata_value("components");
         std::from_chars(components.data(), components.data() + components.size(), graph.component_count_);
+        if (const std::string problem = find_inconsistency(graph); !problem.empty()) fail(problem);
 
         static const std::string core[] = {"meta", "coordinates", "vertex_osm_ids", "first_out", "edges",
                                            "segments", "shape_points", "names", "restrictions", "components"};
@@ -287,6 +311,7 @@ private:
     const std::byte* base_ = nullptr;
     std::size_t size_ = 0;
     std::vector<std::pair<std::string, std::span<const std::byte>>> sections_;
+    std::vector<std::uint32_t> element_sizes_;
 };
 
 RoadGraph load_road_graph(const std::string& path) { return GraphFileLoader(path).load(); }

@@ -7,7 +7,7 @@ set -euo pipefail
 cd "$(dirname "$0")/.."
 
 packages=(cmake g++ make libosmium2-dev libprotozero-dev zlib1g-dev libbz2-dev libexpat1-dev
-          libboost-dev nlohmann-json3-dev catch2 libcli11-dev)
+          libboost-dev nlohmann-json3-dev catch2 libcli11-dev libxxhash-dev)
 missing=()
 for package in "${packages[@]}"; do
   dpkg-query -W -f='${Status}' "$package" 2>/dev/null | grep -q "install ok installed" || missing+=("$package")

@@ -1,48 +1,32 @@
 // The .rrg file: a round trip keeps every section bit for bit, and damaged files (truncated,
-// flipped bytes, wrong magic) are refused with a one-line message naming the file.
+// flipped bytes, wrong magic), files of format version 1 and paths that are not regular files (a
+// named pipe, a directory) are refused at once with a one-line message naming the file.
 
 #include "common/input_error.hpp"
 #include "graph/graph_file.hpp"
+#include "tests/graph/random_road_graph.hpp"
+#include "tests/graph/region_file_editor.hpp"
 #include "tests/support/run_command.hpp"
 
 #include <catch2/catch.hpp>
 
+#include <fcntl.h>
+#include <sys/stat.h>
+#include <unistd.h>
+#include <zlib.h>
+
+#include <algorithm>
+#include <chrono>
 #include <cstring>
 #include <filesystem>
 #include <fstream>
+#include <future>
 #include <random>
 
 using namespace ringroad;
 using namespace ringroad::graph;
 
 namespace {
-
-// A small random road graph: a grid-like set of vertices with random two-way and one-way roads.
-RoadGraph random_graph(std::uint32_t vertices, std::uint32_t roads, unsigned seed) {
-    std::mt19937 random(seed);
-    RoadGraphData data;
-    for (std::uint32_t v = 0; v < vertices; ++v) {
-        data.coordinates.push_back(Coordinate::from_degrees(43.5 + 0.001 * (v % 17), 7.4 + 0.001 * (v / 17)));
-        data.vertex_osm_ids.push_back(1000 + v);
-    }
-    std::uniform_int_distribution<std::uint32_t> pick(0, vertices - 1);
-    for (std::uint32_t r = 0; r < roads; ++r) {
-        const VertexId a = pick(random), b = pick(random);
-        Segment segment{a, b, static_cast<std::uint32_t>(data.shape_points.size()), 0, 0, kNoName, kNoEdge, kNoEdge, r};
-        data.shape_points.push_back(Coordinate::from_degrees(43.6, 7.45));
-        segment.shape_end = static_cast<std::uint32_t>(data.shape_points.size());
-        segment.length_dm = 10 + random() % 1000;
-        if (r % 3 == 0) segment.name = data.add_name("Road " + std::to_string(r));
-        const auto s = static_cast<SegmentId>(data.segments.size());
-        data.segments.push_back(segment);
-        const auto time = static_cast<std::uint32_t>(1 + random() % 500);
-        data.edges.push_back({a, Edge{b, s, time, segment.length_dm, 0, 11, 0}});
-        if (r % 4 != 0) data.edges.push_back({b, Edge{a, s, time, segment.length_dm, 0, 11, 1}});
-    }
-    data.turn_restrictions.push_back({0, data.segments[0].last_vertex, 1, 0, {}, 77});
-    data.metadata.emplace_back("source", "random");
-    return build_road_graph(std::move(data));
-}
 
 template <typename T>
 bool same(std::span<const T> a, std::span<const T> b) {
@@ -71,7 +55,7 @@ std::string load_error(const std::string& path) {
 } // namespace
 
 TEST_CASE("a written graph loads back identical") {
-    const RoadGraph graph = random_graph(300, 900, 7);
+    const RoadGraph graph = test::random_road_graph(300, 900, 7);
     const std::string folder = test::make_scratch_dir("graph-file");
     const std::string path = folder + "/region.rrg";
     const std::vector<std::byte> extra = {std::byte{1}, std::byte{2}, std::byte{3}};
@@ -96,7 +80,7 @@ TEST_CASE("a written graph loads back identical") {
 }
 
 TEST_CASE("segments know their directed edges and edges their tails") {
-    const RoadGraph graph = random_graph(50, 120, 3);
+    const RoadGraph graph = test::random_road_graph(50, 120, 3);
     for (EdgeId e = 0; e < graph.edge_count(); ++e) {
         const Edge& edge = graph.edges()[e];
         const Segment& segment = graph.segments()[edge.segment];
@@ -110,7 +94,7 @@ TEST_CASE("segments know their directed edges and edges their tails") {
 TEST_CASE("damaged graph files are refused with a message naming the file") {
     const std::string folder = test::make_scratch_dir("graph-corrupt");
     const std::string good = folder + "/good.rrg";
-    write_road_graph(random_graph(200, 600, 11), good);
+    write_road_graph(test::random_road_graph(200, 600, 11), good);
     const std::vector<char> bytes = read_bytes(good);
     const std::string bad = folder + "/bad.rrg";
 
@@ -125,21 +109,39 @@ TEST_CASE("damaged graph files are refused with a message naming the file") {
         }
     }
     SECTION("one flipped byte anywhere is detected") {
+        // Where the sections lie, read from the table as graph/FORMAT.md lays it out.
+        const test::RegionFileEditor layout(bytes);
+        std::vector<std::pair<std::uint64_t, std::uint64_t>> sections;   // [begin, end)
+        for (std::uint32_t i = 0; i < layout.section_count(); ++i) {
+            const std::size_t entry = test::RegionFileEditor::kHeaderSize + i * test::RegionFileEditor::kEntrySize;
+            const auto offset = layout.get<std::uint64_t>(entry + test::RegionFileEditor::kEntryOffsetAt);
+            sections.emplace_back(offset, offset + layout.get<std::uint64_t>(entry + test::RegionFileEditor::kEntrySizeAt));
+        }
+        const std::uint64_t table_end =
+            test::RegionFileEditor::kHeaderSize + layout.section_count() * test::RegionFileEditor::kEntrySize;
         std::mt19937 random(5);
-        for (int trial = 0; trial < 200; ++trial) {
+        int in_sections = 0;
+        for (int trial = 0; trial < 300; ++trial) {
             auto damaged = bytes;
             const std::size_t at = random() % damaged.size();
             damaged[at] = static_cast<char>(damaged[at] ^ (1 + random() % 255));
             write_bytes(bad, damaged);
             const std::string message = load_error(bad);
-            // Padding bytes between sections carry no data and no checksum; every other byte does.
-            if (message.empty()) {
-                CHECK_NOTHROW(load_road_graph(bad));
-                continue;
-            }
             INFO("flipped byte " << at << ": " << message);
-            CHECK(message.rfind(bad + ": ", 0) == 0);
+            const bool in_section = std::any_of(sections.begin(), sections.end(),
+                                                [&](const auto& range) { return at >= range.first && at < range.second; });
+            if (at < table_end) {
+                CHECK(message.rfind(bad + ": ", 0) == 0);
+            } else if (in_section) {
+                // Only the section's checksum can see every such change (a changed travel time, say).
+                ++in_sections;
+                CHECK(message.rfind(bad + ": checksum mismatch in section '", 0) == 0);
+            } else {
+                // Zero padding between sections carries no data and no checksum.
+                CHECK(message.empty());
+            }
         }
+        CHECK(in_sections > 200);
     }
     SECTION("not a graph at all") {
         write_bytes(bad, std::vector<char>(4096, 'x'));
@@ -149,9 +151,65 @@ TEST_CASE("damaged graph files are refused with a message naming the file") {
     std::filesystem::remove_all(folder);
 }
 
+TEST_CASE("a file of format version 1 is refused with one line saying to rebuild it") {
+    const std::string folder = test::make_scratch_dir("graph-version");
+    const std::string old = folder + "/old.rrg";
+    // A version-1 file with no sections, as version 1 of graph/FORMAT.md laid it out: 64-byte
+    // header, CRC32 (zlib) of the empty table at offset 32 and of bytes 0..59 at offset 60.
+    std::vector<char> v1(64, 0);
+    const unsigned char magic[8] = {0x89, 'R', 'R', 'G', '\r', '\n', 0x1A, '\n'};
+    std::memcpy(v1.data(), magic, 8);
+    const std::uint32_t version = 1, sections = 0;
+    const std::uint64_t size = 64, table_offset = 64;
+    std::memcpy(v1.data() + 8, &version, 4);
+    std::memcpy(v1.data() + 12, &sections, 4);
+    std::memcpy(v1.data() + 16, &size, 8);
+    std::memcpy(v1.data() + 24, &table_offset, 8);
+    const auto table_crc = static_cast<std::uint32_t>(crc32(0L, Z_NULL, 0));
+    std::memcpy(v1.data() + 32, &table_crc, 4);
+    const auto header_crc = static_cast<std::uint32_t>(crc32(0L, reinterpret_cast<const Bytef*>(v1.data()), 60));
+    std::memcpy(v1.data() + 60, &header_crc, 4);
+    write_bytes(old, v1);
+    CHECK(load_error(old) == old + ": region graph format version 1, which this ringroad does not read (it reads "
+                                   "version 2); rebuild the file from its extract with `ringroad build`");
+
+    // A later version, sealed as version 2 seals a header, gets the same advice.
+    write_road_graph(test::random_road_graph(20, 40, 2), folder + "/good.rrg");
+    test::RegionFileEditor later(read_bytes(folder + "/good.rrg"));
+    later.set<std::uint32_t>(8, 3);
+    later.reseal();
+    write_bytes(folder + "/later.rrg", later.bytes());
+    CHECK(load_error(folder + "/later.rrg").find("format version 3, which this ringroad does not read") !=
+          std::string::npos);
+    // An unknown version in a header that fails its checksum is damage, not an old file.
+    test::RegionFileEditor damaged(later.bytes());
+    damaged.set<std::uint32_t>(8, 7);
+    write_bytes(folder + "/damaged.rrg", damaged.bytes());
+    CHECK(load_error(folder + "/damaged.rrg") == folder + "/damaged.rrg: corrupt header (checksum mismatch)");
+    std::filesystem::remove_all(folder);
+}
+
+TEST_CASE("a named pipe or a directory given as the region file is refused at once") {
+    const std::string folder = test::make_scratch_dir("graph-special");
+    const std::string pipe = folder + "/region.rrg";
+    REQUIRE(::mkfifo(pipe.c_str(), 0600) == 0);
+    // Opening a pipe for reading waits for a writer: the loader must answer without one. If it
+    // has not answered after a while, a writer appears so that the test ends either way.
+    auto answer = std::async(std::launch::async, [&] { return load_error(pipe); });
+    const bool answered_alone = answer.wait_for(std::chrono::seconds(20)) == std::future_status::ready;
+    if (!answered_alone) {
+        const int writer = ::open(pipe.c_str(), O_WRONLY | O_CLOEXEC);
+        if (writer >= 0) ::close(writer);
+    }
+    CHECK(answered_alone);
+    CHECK(answer.get() == pipe + ": is a named pipe (FIFO), not a region graph file");
+    CHECK(load_error(folder) == folder + ": is a directory, not a region graph file");
+    std::filesystem::remove_all(folder);
+}
+
 TEST_CASE("a failed write leaves no file behind") {
     const std::string folder = test::make_scratch_dir("graph-nowrite");
-    CHECK_THROWS_AS(write_road_graph(random_graph(10, 20, 1), folder + "/no/such/folder/x.rrg"), InputError);
+    CHECK_THROWS_AS(write_road_graph(test::random_road_graph(10, 20, 1), folder + "/no/such/folder/x.rrg"), InputError);
     CHECK(std::filesystem::is_empty(folder));
     std::filesystem::remove_all(folder);
 }
