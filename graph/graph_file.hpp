@@ -17,7 +17,8 @@ inline constexpr std::uint32_t kGraphFormatVersion = 2;
 void write_road_graph(const RoadGraph& graph, const std::string& path);
 
 // Maps the file and checks magic, version, table, sizes, every section's checksum and then every
-// index and range of the core sections (graph/consistency_check.hpp). Throws InputError, one line
+// index and range of the core sections (graph/consistency_check.hpp, on a second thread beside the
+// checksums; damage is reported before inconsistency). Throws InputError, one line
 // naming the file and the problem ("is a named pipe (FIFO), not a region graph file", "truncated",
 // "checksum mismatch in section 'edges'", "section 'edges' record 12: head 9 is out of range
 // (n = 5)", a version-1 file's "rebuild ... with `ringroad build`", ...).
