@@ -152,7 +152,9 @@ struct RoadRouter::State {
     std::array<std::once_flag, 2> build_once;
 
     State(graph::RoadGraph graph, RestrictionPolicy policy)
-        : road_graph(std::move(graph)), routing_graph(road_graph, policy), snapper(road_graph) {
+        : road_graph(std::move(graph)),
+          routing_graph(RoutingGraph::stored_or_derived(road_graph, policy)),
+          snapper(road_graph) {
         for (const graph::Edge& edge : road_graph.edges()) {
             if (edge.time_ds > 0) top_speed = std::max(top_speed, static_cast<double>(edge.length_dm) / edge.time_ds);
         }
@@ -191,6 +193,7 @@ RoadRouter::~RoadRouter() = default;
 
 const graph::RoadGraph& RoadRouter::road_graph() const noexcept { return state_->road_graph; }
 const RoutingGraph& RoadRouter::routing_graph() const noexcept { return state_->routing_graph; }
+bool RoadRouter::uses_stored_snap_index() const noexcept { return state_->snapper.uses_stored_index(); }
 bool RoadRouter::has_stored_hierarchy(Metric metric) const { return state_->stored[static_cast<std::size_t>(metric)]; }
 
 bool RoadRouter::has_unusable_hierarchy(Metric metric) const {
