@@ -122,8 +122,8 @@ void run_build(const BuildArguments& arguments) {
     check_output_folder(arguments.output);
     Progress progress{arguments.quiet};
     graph::RoadGraph graph = build_graph_from_extract(arguments, progress);
+    graph = add_query_sections(graph, progress);   // first: the contraction reuses the stored routing graph
     if (!arguments.no_hierarchy) graph = add_contraction_hierarchy(graph, progress);
-    graph = add_query_sections(graph, progress);
     write_graph(graph, arguments.output, progress);
     if (!arguments.quiet) print_summary(graph, arguments, progress.elapsed_seconds());
 }

@@ -300,3 +300,24 @@ TEST_CASE("Damaged stored snapping indexes are refused naming the section and re
                                                        "contain its child node [0-9]+; rebuild .*"));
     }
 }
+
+TEST_CASE("Commands refuse a region file whose stored structure is inconsistent, in one line, exit 1", "[stored][damage]") {
+    // The checksums are right (the writer computed them over the damaged bytes): only the
+    // structure check can catch this.
+    const auto graph = damaged<std::uint32_t>("rg.arc_head", [](auto arcs) { arcs[5] = 1000000; });
+    const std::string folder = test::make_scratch_dir("stored-cli");
+    const std::string path = folder + "/region.rrg";
+    graph::write_road_graph(graph, path);
+    const graph::Coordinate at = graph.coordinate(0);
+    test::write_file(folder + "/stops.csv", "id,lat,lon\na," + std::to_string(at.lat()) + "," + std::to_string(at.lon()) + "\n");
+    for (const std::vector<std::string>& arguments :
+         {std::vector<std::string>{"info", path}, std::vector<std::string>{"matrix", path, "--stops", folder + "/stops.csv"}}) {
+        const test::CommandResult result = test::run_ringroad(arguments);
+        INFO(arguments[0] << ": " << result.err);
+        REQUIRE(result.exit_code == 1);
+        REQUIRE(result.out.empty());
+        REQUIRE(result.err == "ringroad: stored section 'rg.arc_head' record 5: node 1000000 is out of range (" +
+                                  std::to_string(graph.edge_count()) +
+                                  " nodes); rebuild the region file with `ringroad build`\n");
+    }
+}
