@@ -147,33 +147,43 @@ struct RoadRouter::State {
     RoutingGraph routing_graph;
     RoadSnapper snapper;
     double top_speed = 0.0;
+    // Per metric, loaded on first use: a query of one metric does not check the other's sections.
     std::array<std::optional<hierarchy::ContractionHierarchy>, 2> hierarchies;
     std::array<bool, 2> stored{false, false};
+    std::array<std::once_flag, 2> load_once;
     std::array<std::once_flag, 2> build_once;
 
     State(graph::RoadGraph graph, RestrictionPolicy policy)
-        : road_graph(std::move(graph)), routing_graph(road_graph, policy), snapper(road_graph) {
+        : road_graph(std::move(graph)),
+          routing_graph(RoutingGraph::stored_or_derived(road_graph, policy)),
+          snapper(road_graph) {
         for (const graph::Edge& edge : road_graph.edges()) {
             if (edge.time_ds > 0) top_speed = std::max(top_speed, static_cast<double>(edge.length_dm) / edge.time_ds);
         }
-        for (Metric metric : {Metric::time, Metric::distance}) {
-            const auto index = static_cast<std::size_t>(metric);
+    }
+
+    // Whether the file's hierarchy for `metric` is usable (mapping it on first call).
+    bool has_stored(Metric metric) {
+        const auto index = static_cast<std::size_t>(metric);
+        std::call_once(load_once[index], [&] {
             hierarchies[index] = hierarchy::ContractionHierarchy::from_sections(road_graph, routing_graph, metric);
             stored[index] = hierarchies[index].has_value();
-            if (stored[index]) std::call_once(build_once[index], [] {});
-        }
+        });
+        return stored[index];
     }
 
     const hierarchy::ContractionHierarchy& hierarchy(Metric metric) {
         const auto index = static_cast<std::size_t>(metric);
-        std::call_once(build_once[index], [&] {
-            hierarchies[index] = hierarchy::ContractionHierarchy::build(routing_graph, metric);
-        });
+        if (!has_stored(metric)) {
+            std::call_once(build_once[index], [&] {
+                hierarchies[index] = hierarchy::ContractionHierarchy::build(routing_graph, metric);
+            });
+        }
         return *hierarchies[index];
     }
 
-    bool use_hierarchy(Metric metric, Engine engine) const {
-        return engine == Engine::hierarchy || (engine == Engine::automatic && stored[static_cast<std::size_t>(metric)]);
+    bool use_hierarchy(Metric metric, Engine engine) {
+        return engine == Engine::hierarchy || (engine == Engine::automatic && has_stored(metric));
     }
 
     std::vector<StopEndpoints> endpoints(const std::vector<SnappedStop>& stops) const {
@@ -191,7 +201,8 @@ RoadRouter::~RoadRouter() = default;
 
 const graph::RoadGraph& RoadRouter::road_graph() const noexcept { return state_->road_graph; }
 const RoutingGraph& RoadRouter::routing_graph() const noexcept { return state_->routing_graph; }
-bool RoadRouter::has_stored_hierarchy(Metric metric) const { return state_->stored[static_cast<std::size_t>(metric)]; }
+bool RoadRouter::uses_stored_snap_index() const noexcept { return state_->snapper.uses_stored_index(); }
+bool RoadRouter::has_stored_hierarchy(Metric metric) const { return state_->has_stored(metric); }
 
 bool RoadRouter::has_unusable_hierarchy(Metric metric) const {
     return hierarchy::has_hierarchy_sections(state_->road_graph, metric) && !has_stored_hierarchy(metric);

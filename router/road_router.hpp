@@ -1,9 +1,10 @@
 #pragma once
 // RoadRouter: the library face of the router, used directly by the command line, the planners'
-// road-network code and the daemon. Made from a graph::RoadGraph, it owns what it derives: the
-// edge-based routing graph (turn restrictions, U-turn rule), the snapping index, and the
-// contraction hierarchies (mapped from the graph's sections when present, otherwise built in
-// memory on first use).
+// road-network code and the daemon. Made from a graph::RoadGraph, it uses what the file stores,
+// in place in the mapping: the edge-based routing graph (turn restrictions, U-turn rule; `rg.`
+// sections), the snapping index (`snap.`) and the contraction hierarchies (`ch.`); what a file
+// lacks it derives at load (the routing graph, the snapping index) or builds in memory on first
+// use (a hierarchy). Throws InputError when a stored structure is damaged (router/STORED.md).
 //
 // All const member functions are safe to call from several threads at once.
 //
@@ -57,6 +58,8 @@ public:
 
     const graph::RoadGraph& road_graph() const noexcept;
     const RoutingGraph& routing_graph() const noexcept;
+    // Whether the snapping index is the one stored in the file (not built at load).
+    bool uses_stored_snap_index() const noexcept;
     const RouterOptions& options() const noexcept { return options_; }
     // Whether the graph file carried a hierarchy for `metric` (Engine::automatic picks it).
     bool has_stored_hierarchy(Metric metric) const;

@@ -75,22 +75,37 @@ std::uint64_t fnv1a(std::uint64_t hash, std::uint64_t value) {
     return hash;
 }
 
-} // namespace
-
-std::uint32_t RoutingGraph::successor_code(NodeId node, std::uint32_t range_begin, std::uint32_t range_end) const {
-    const std::uint32_t only_predecessor = first_reverse_arc_[node + 1] - first_reverse_arc_[node] == 1 ? 1u : 0u;
+// The 32-bit successor code of `node` (RoutingGraph::SearchNode), whose head's exits are the
+// nodes [range_begin, range_end).
+std::uint32_t successor_code(const std::vector<std::uint32_t>& first_arc, const std::vector<NodeId>& arc_head,
+                             const std::vector<std::uint32_t>& first_reverse_arc, NodeId node,
+                             std::uint32_t range_begin, std::uint32_t range_end) {
+    const std::uint32_t only_predecessor = first_reverse_arc[node + 1] - first_reverse_arc[node] == 1 ? 1u : 0u;
     const std::uint32_t range_length = range_end - range_begin;
-    const std::uint32_t successor_count = first_arc_[node + 1] - first_arc_[node];
-    if (range_length >= kSuccessorList || successor_count + 1 < range_length) return kSuccessorList << 1 | only_predecessor;
+    const std::uint32_t successor_count = first_arc[node + 1] - first_arc[node];
+    if (range_length >= RoutingGraph::kSuccessorList || successor_count + 1 < range_length) {
+        return RoutingGraph::kSuccessorList << 1 | only_predecessor;
+    }
     // Successors are a subsequence of the range (the expansion walks the exits in order).
-    std::uint32_t skipped = kNoSkippedSuccessor;
+    std::uint32_t skipped = RoutingGraph::kNoSkippedSuccessor;
     if (successor_count < range_length) {
         skipped = 0;
-        while (skipped < successor_count && arc_head_[first_arc_[node] + skipped] == range_begin + skipped) ++skipped;
+        while (skipped < successor_count && arc_head[first_arc[node] + skipped] == range_begin + skipped) ++skipped;
     }
-    const std::uint32_t first = std::min(range_begin, kFirstSuccessorElsewhere);
+    const std::uint32_t first = std::min(range_begin, RoutingGraph::kFirstSuccessorElsewhere);
     return first << 9 | skipped << 5 | range_length << 1 | only_predecessor;
 }
+
+} // namespace
+
+struct RoutingGraph::DerivedArrays {
+    graph::RoadGraph road_graph;   // shares the road graph's storage: edges_ points into it
+    std::vector<std::uint32_t> first_arc;
+    std::vector<NodeId> arc_head;
+    std::vector<std::uint32_t> first_reverse_arc;
+    std::vector<NodeId> reverse_arc_tail;
+    std::vector<SearchNode> search_nodes[2];
+};
 
 bool should_honour_restrictions(const graph::RoadGraph& road_graph, RestrictionPolicy policy) {
     switch (policy) {
@@ -104,69 +119,79 @@ bool should_honour_restrictions(const graph::RoadGraph& road_graph, RestrictionP
 
 RoutingGraph::RoutingGraph(const graph::RoadGraph& road_graph, RestrictionPolicy policy)
     : honours_restrictions_(should_honour_restrictions(road_graph, policy)) {
+    auto arrays = std::make_shared<DerivedArrays>();
+    arrays->road_graph = road_graph;
     const std::uint32_t node_count = road_graph.edge_count();
     const auto edges = road_graph.edges();
     const auto first_out = road_graph.first_out();
     const std::vector<std::uint8_t> dead_end = dead_ends(road_graph);
     const TurnRules turn_rules(road_graph, honours_restrictions_);
 
-    node_time_ds_.resize(node_count);
-    node_length_dm_.resize(node_count);
-    first_arc_.assign(node_count + 1, 0);
-    arc_head_.reserve(static_cast<std::size_t>(node_count) * 3);
+    std::vector<std::uint32_t>& first_arc = arrays->first_arc;
+    std::vector<NodeId>& arc_head = arrays->arc_head;
+    first_arc.assign(node_count + 1, 0);
+    arc_head.reserve(static_cast<std::size_t>(node_count) * 3);
     for (NodeId node = 0; node < node_count; ++node) {
         const graph::Edge& arriving = edges[node];
-        node_time_ds_[node] = arriving.time_ds;
-        node_length_dm_[node] = arriving.length_dm;
         const graph::VertexId via = arriving.head;
         for (std::uint32_t next = first_out[via]; next < first_out[via + 1]; ++next) {
             const graph::Edge& leaving = edges[next];
             const bool u_turn = leaving.segment == arriving.segment && next != node;
             if (u_turn && !dead_end[via]) continue;
             if (!turn_rules.allowed(via, arriving.segment, leaving.segment)) continue;
-            arc_head_.push_back(next);
+            arc_head.push_back(next);
         }
-        first_arc_[node + 1] = static_cast<std::uint32_t>(arc_head_.size());
+        first_arc[node + 1] = static_cast<std::uint32_t>(arc_head.size());
     }
 
     // Reverse adjacency by counting sort, so predecessors come out ordered by tail.
-    first_reverse_arc_.assign(node_count + 1, 0);
-    for (NodeId head : arc_head_) ++first_reverse_arc_[head + 1];
-    for (std::uint32_t node = 0; node < node_count; ++node) first_reverse_arc_[node + 1] += first_reverse_arc_[node];
-    reverse_arc_tail_.resize(arc_head_.size());
-    std::vector<std::uint32_t> fill(first_reverse_arc_.begin(), first_reverse_arc_.end() - 1);
+    std::vector<std::uint32_t>& first_reverse_arc = arrays->first_reverse_arc;
+    first_reverse_arc.assign(node_count + 1, 0);
+    for (NodeId head : arc_head) ++first_reverse_arc[head + 1];
+    for (std::uint32_t node = 0; node < node_count; ++node) first_reverse_arc[node + 1] += first_reverse_arc[node];
+    arrays->reverse_arc_tail.resize(arc_head.size());
+    std::vector<std::uint32_t> fill(first_reverse_arc.begin(), first_reverse_arc.end() - 1);
     for (NodeId tail = 0; tail < node_count; ++tail) {
-        for (std::uint32_t arc = first_arc_[tail]; arc < first_arc_[tail + 1]; ++arc) {
-            reverse_arc_tail_[fill[arc_head_[arc]]++] = tail;
+        for (std::uint32_t arc = first_arc[tail]; arc < first_arc[tail + 1]; ++arc) {
+            arrays->reverse_arc_tail[fill[arc_head[arc]]++] = tail;
         }
     }
 
     for (Metric metric : {Metric::time, Metric::distance}) {
-        std::vector<PackedWeight>& weights = node_weights_[static_cast<int>(metric)];
-        weights.resize(node_count);
+        std::vector<PackedWeight> weights(node_count);
         for (NodeId node = 0; node < node_count; ++node) {
-            weights[node] = pack_weight(metric, node_time_ds_[node], node_length_dm_[node]);
+            weights[node] = pack_weight(metric, edges[node].time_ds, edges[node].length_dm);
         }
         search_block_shift_[static_cast<int>(metric)] = block_shift_for(weights);
         smallest_node_weight_[static_cast<int>(metric)] = weights.empty() ? 0 : *std::min_element(weights.begin(), weights.end());
-        std::vector<SearchNode>& search_nodes = search_nodes_[static_cast<int>(metric)];
+        std::vector<SearchNode>& search_nodes = arrays->search_nodes[static_cast<int>(metric)];
         search_nodes.resize(node_count);
         for (NodeId node = 0; node < node_count; ++node) {
-            search_nodes[node] = {weights[node], successor_code(node, first_out[edges[node].head],
-                                                                first_out[edges[node].head + 1]),
-                                  first_out[edges[node].head]};
+            const graph::VertexId head = edges[node].head;
+            search_nodes[node] = {weights[node],
+                                  successor_code(first_arc, arc_head, first_reverse_arc, node, first_out[head],
+                                                 first_out[head + 1]),
+                                  first_out[head]};
         }
     }
 
     std::uint64_t hash = 14695981039346656037ull;
     hash = fnv1a(hash, node_count);
-    hash = fnv1a(hash, arc_head_.size());
+    hash = fnv1a(hash, arc_head.size());
     for (NodeId node = 0; node < node_count; ++node) {
-        hash = fnv1a(hash, (std::uint64_t{node_time_ds_[node]} << 32) | node_length_dm_[node]);
-        hash = fnv1a(hash, first_arc_[node + 1]);
+        hash = fnv1a(hash, (std::uint64_t{edges[node].time_ds} << 32) | edges[node].length_dm);
+        hash = fnv1a(hash, first_arc[node + 1]);
     }
-    for (NodeId head : arc_head_) hash = fnv1a(hash, head);
+    for (NodeId head : arc_head) hash = fnv1a(hash, head);
     fingerprint_ = hash;
+
+    edges_ = arrays->road_graph.edges();
+    first_arc_ = arrays->first_arc;
+    arc_head_ = arrays->arc_head;
+    first_reverse_arc_ = arrays->first_reverse_arc;
+    reverse_arc_tail_ = arrays->reverse_arc_tail;
+    for (int metric = 0; metric < 2; ++metric) search_nodes_[metric] = arrays->search_nodes[metric];
+    storage_ = std::move(arrays);
 }
 
 } // namespace ringroad::router

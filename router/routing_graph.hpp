@@ -1,6 +1,8 @@
 #pragma once
 // RoutingGraph: the edge-based graph both Dijkstra and the contraction hierarchy search, derived
-// deterministically from a graph::RoadGraph at load time.
+// deterministically from a graph::RoadGraph, or mapped from the `rg.` sections `ringroad build`
+// stores in the file (layout in router/STORED.md): then it is a set of spans into the mapping and
+// opening a region derives nothing.
 //
 // One routing node per road edge (graph::EdgeId): node e means "having driven along edge e, now
 // at its head vertex". A turn arc e -> f exists when f leaves e's head and the turn is allowed;
@@ -17,6 +19,8 @@
 #include "router/metric.hpp"
 
 #include <cstdint>
+#include <memory>
+#include <optional>
 #include <span>
 #include <vector>
 
@@ -34,9 +38,23 @@ enum class RestrictionPolicy : std::uint8_t {
 class RoutingGraph {
 public:
     RoutingGraph() = default;
+    // Derives the expansion from the road graph (what a file without `rg.` sections needs).
     RoutingGraph(const graph::RoadGraph& road_graph, RestrictionPolicy policy);
 
-    std::uint32_t node_count() const noexcept { return static_cast<std::uint32_t>(node_time_ds_.size()); }
+    // The routing graph stored in the road graph's `rg.` sections, viewed in place, when they
+    // exist, have this build's layout version and were stored for the restriction setting
+    // `policy` means for this graph; nullopt otherwise (derive it then). Throws InputError naming
+    // the section and record when the stored arrays are damaged or inconsistent (an id out of
+    // range, offsets that do not ascend, a record disagreeing with the road graph).
+    static std::optional<RoutingGraph> from_sections(const graph::RoadGraph& road_graph, RestrictionPolicy policy);
+    // The stored graph when usable, else the derived one.
+    static RoutingGraph stored_or_derived(const graph::RoadGraph& road_graph, RestrictionPolicy policy);
+    // The `rg.` sections for `ringroad build` (layout in router/STORED.md).
+    std::vector<graph::ExtraSection> to_sections() const;
+    // Whether this graph is a view of stored sections (rather than derived in memory).
+    bool is_stored() const noexcept { return stored_; }
+
+    std::uint32_t node_count() const noexcept { return static_cast<std::uint32_t>(edges_.size()); }
     std::uint32_t arc_count() const noexcept { return static_cast<std::uint32_t>(arc_head_.size()); }
     bool honours_turn_restrictions() const noexcept { return honours_restrictions_; }
 
@@ -51,14 +69,10 @@ public:
     }
 
     // Cost of entering node f (driving all of edge f).
-    std::uint32_t node_time_ds(NodeId node) const { return node_time_ds_[node]; }
-    std::uint32_t node_length_dm(NodeId node) const { return node_length_dm_[node]; }
+    std::uint32_t node_time_ds(NodeId node) const { return edges_[node].time_ds; }
+    std::uint32_t node_length_dm(NodeId node) const { return edges_[node].length_dm; }
     PackedWeight node_weight(Metric metric, NodeId node) const {
-        return node_weights_[static_cast<int>(metric)][node];
-    }
-    // All nodes' packed weights for one metric (the inner loop of the searches reads these).
-    std::span<const PackedWeight> node_weights(Metric metric) const noexcept {
-        return node_weights_[static_cast<int>(metric)];
+        return search_nodes_[static_cast<int>(metric)][node].weight;
     }
 
     // Per node, what a search needs in one 16-byte record. Node e's successors are edges leaving
@@ -103,18 +117,20 @@ public:
     std::uint64_t fingerprint() const noexcept { return fingerprint_; }
 
 private:
-    std::vector<std::uint32_t> first_arc_;
-    std::vector<NodeId> arc_head_;
-    std::vector<std::uint32_t> first_reverse_arc_;
-    std::vector<NodeId> reverse_arc_tail_;
-    std::vector<std::uint32_t> node_time_ds_;
-    std::vector<std::uint32_t> node_length_dm_;
-    std::vector<PackedWeight> node_weights_[2];
-    std::vector<SearchNode> search_nodes_[2];
+    struct DerivedArrays;
+    // Owns what the spans point into: the derived arrays, or the road graph whose mapping holds
+    // the stored sections. Either way it keeps the road graph's edges (node costs) alive.
+    std::shared_ptr<const void> storage_;
+    std::span<const graph::Edge> edges_;          // node e's costs are edge e's
+    std::span<const std::uint32_t> first_arc_;
+    std::span<const NodeId> arc_head_;
+    std::span<const std::uint32_t> first_reverse_arc_;
+    std::span<const NodeId> reverse_arc_tail_;
+    std::span<const SearchNode> search_nodes_[2];
     unsigned search_block_shift_[2] = {32, 32};
     PackedWeight smallest_node_weight_[2] = {0, 0};
-    std::uint32_t successor_code(NodeId node, std::uint32_t range_begin, std::uint32_t range_end) const;
     bool honours_restrictions_ = false;
+    bool stored_ = false;
     std::uint64_t fingerprint_ = 0;
 };
 

@@ -1,8 +1,11 @@
-// The only file that includes Boost.Geometry's R-tree (heavy to compile).
+// The only file that includes Boost.Geometry's R-tree (heavy to compile): the fallback index
+// for region files without a stored one.
 #include "router/snapping.hpp"
 
 #include "common/input_error.hpp"
 #include "graph/haversine.hpp"
+#include "router/snap_geometry.hpp"
+#include "router/snap_index.hpp"
 #include "router/stops.hpp"
 
 #include <boost/geometry.hpp>
@@ -10,8 +13,11 @@
 #include <boost/geometry/geometries/segment.hpp>
 #include <boost/geometry/index/rtree.hpp>
 
+#include <algorithm>
 #include <cmath>
 #include <cstdio>
+#include <optional>
+#include <vector>
 #include <limits>
 #include <numbers>
 #include <sstream>
@@ -21,22 +27,19 @@ namespace ringroad::router {
 namespace bg = boost::geometry;
 namespace bgi = boost::geometry::index;
 
+using snapping::Candidate;
+using snapping::kMetersPerDegree;
+using snapping::PlanePoint;
+using snapping::PlaneProjection;
+
 namespace {
 
-using PlanePoint = bg::model::point<double, 2, bg::cs::cartesian>;
-using PlaneSegment = bg::model::segment<PlanePoint>;
+using BoostPoint = bg::model::point<double, 2, bg::cs::cartesian>;
+using BoostSegment = bg::model::segment<BoostPoint>;
+// A piece in the fallback tree: its plane segment and (segment, first_point).
+using BoostValue = std::pair<BoostSegment, std::pair<graph::SegmentId, std::uint32_t>>;
 
-constexpr double kMetersPerDegree = graph::kEarthMeanRadiusMeters * std::numbers::pi / 180.0;
-constexpr std::size_t kCandidates = 8;   // R-tree neighbours re-ranked by haversine
 constexpr double kBoundsMarginMeters = 2000.0;
-
-// One straight piece of a segment's geometry.
-struct Piece {
-    graph::SegmentId segment;
-    std::uint32_t first_point;        // index into the segment's geometry
-    double meters_before;             // haversine length of the segment before this piece
-    double segment_meters;            // haversine length of the whole segment
-};
 
 struct Bounds {
     bool known = false;
@@ -59,47 +62,79 @@ std::string format_meters(double meters) {
     return text;
 }
 
+BoostPoint boost_point(PlanePoint point) { return {point.x, point.y}; }
+
+// Haversine length of a segment's pieces before `first_point`, and of the whole segment, summed
+// in geometry order.
+std::pair<double, double> piece_meters(const graph::RoadGraph& road_graph, const graph::Segment& segment,
+                                       std::uint32_t first_point) {
+    double before = 0.0, total = 0.0;
+    const std::uint32_t count = snapping::segment_point_count(segment);
+    graph::Coordinate previous = snapping::segment_point(road_graph, segment, 0);
+    for (std::uint32_t i = 1; i < count; ++i) {
+        const graph::Coordinate point = snapping::segment_point(road_graph, segment, i);
+        const double meters = graph::haversine_meters(previous, point);
+        total += meters;
+        if (i <= first_point) before += meters;
+        previous = point;
+    }
+    return {before, total};
+}
+
 } // namespace
 
 struct RoadSnapper::Index {
-    double reference_cos_lat = 1.0;   // the plane's x scale: cos(latitude of the region's middle)
+    PlaneProjection plane;
     Bounds bounds;
-    std::vector<Piece> pieces;
-    bgi::rtree<std::pair<PlaneSegment, std::uint32_t>, bgi::rstar<16>> tree;
+    std::optional<snapping::PackedPieceIndex> stored;
+    bgi::rtree<BoostValue, bgi::rstar<16>> tree;   // the fallback, when nothing is stored
 
-    PlanePoint to_plane(double lat, double lon) const {
-        return {lon * reference_cos_lat * kMetersPerDegree, lat * kMetersPerDegree};
+    bool empty() const { return stored ? stored->empty() : tree.empty(); }
+
+    // The kCandidates nearest pieces in Candidate order.
+    void candidates(PlanePoint query, std::vector<Candidate>& out) const {
+        if (stored) {
+            stored->nearest(query, out);
+            return;
+        }
+        // Boost returns neighbours by increasing distance but orders equal ones by its tree's
+        // layout: take every piece as near as the kCandidates-th (give or take rounding between
+        // its distance and ours), then keep the first kCandidates in Candidate order.
+        out.clear();
+        const BoostPoint point = boost_point(query);
+        double last_kept = 0.0;
+        for (auto it = tree.qbegin(bgi::nearest(point, static_cast<unsigned>(tree.size()))); it != tree.qend(); ++it) {
+            const double boost_distance = bg::comparable_distance(point, it->first);
+            if (out.size() >= snapping::kCandidates && boost_distance > last_kept + last_kept * 1e-6 + 1e-6) break;
+            if (out.size() < snapping::kCandidates) last_kept = boost_distance;
+            const PlanePoint a{bg::get<0, 0>(it->first), bg::get<0, 1>(it->first)};
+            const PlanePoint b{bg::get<1, 0>(it->first), bg::get<1, 1>(it->first)};
+            out.push_back({snapping::comparable_distance(query, a, b), it->second.first, it->second.second});
+        }
+        std::sort(out.begin(), out.end());
+        if (out.size() > snapping::kCandidates) out.resize(snapping::kCandidates);
     }
 };
 
-RoadSnapper::RoadSnapper(const graph::RoadGraph& road_graph)
+RoadSnapper::RoadSnapper(const graph::RoadGraph& road_graph, SnapIndexSource source)
     : road_graph_(&road_graph), index_(std::make_unique<Index>()) {
     Index& index = *index_;
     index.bounds = parse_bounds(road_graph.metadata_value("bbox"));
-    double lat_sum = 0.0;
-    for (const graph::Coordinate& coordinate : road_graph.coordinates()) lat_sum += coordinate.lat();
-    const double middle_lat = road_graph.vertex_count() > 0 ? lat_sum / road_graph.vertex_count() : 0.0;
-    index.reference_cos_lat = std::cos(middle_lat * std::numbers::pi / 180.0);
-
-    std::vector<std::pair<PlaneSegment, std::uint32_t>> values;
+    if (source == SnapIndexSource::stored_when_present) index.stored = snapping::PackedPieceIndex::from_sections(road_graph);
+    if (index.stored) {
+        index.plane = PlaneProjection{index.stored->reference_cos_lat()};
+        return;
+    }
+    index.plane = PlaneProjection{snapping::reference_cos_lat(road_graph)};
+    std::vector<BoostValue> values;
     const auto segments = road_graph.segments();
     for (graph::SegmentId s = 0; s < road_graph.segment_count(); ++s) {
         const graph::Segment& segment = segments[s];
-        if (segment.forward_edge == graph::kNoEdge && segment.backward_edge == graph::kNoEdge) continue;
-        if (!road_graph.in_main_component(segment.first_vertex) || !road_graph.in_main_component(segment.last_vertex)) {
-            continue;
-        }
-        const std::vector<graph::Coordinate> points = road_graph.segment_geometry(s);
-        double total = 0.0;
-        for (std::size_t i = 1; i < points.size(); ++i) total += graph::haversine_meters(points[i - 1], points[i]);
-        double before = 0.0;
-        for (std::size_t i = 1; i < points.size(); ++i) {
-            const auto piece_index = static_cast<std::uint32_t>(index.pieces.size());
-            index.pieces.push_back({s, static_cast<std::uint32_t>(i - 1), before, total});
-            values.emplace_back(PlaneSegment{index.to_plane(points[i - 1].lat(), points[i - 1].lon()),
-                                             index.to_plane(points[i].lat(), points[i].lon())},
-                                piece_index);
-            before += graph::haversine_meters(points[i - 1], points[i]);
+        if (!snapping::is_snappable(road_graph, segment)) continue;
+        for (std::uint32_t point = 0; point + 1 < snapping::segment_point_count(segment); ++point) {
+            values.emplace_back(BoostSegment{boost_point(index.plane(snapping::segment_point(road_graph, segment, point))),
+                                             boost_point(index.plane(snapping::segment_point(road_graph, segment, point + 1)))},
+                                std::pair{s, point});
         }
     }
     index.tree = decltype(index.tree)(values.begin(), values.end());   // packing: faster queries
@@ -109,25 +144,27 @@ RoadSnapper::~RoadSnapper() = default;
 RoadSnapper::RoadSnapper(RoadSnapper&&) noexcept = default;
 RoadSnapper& RoadSnapper::operator=(RoadSnapper&&) noexcept = default;
 
+bool RoadSnapper::uses_stored_index() const noexcept { return index_->stored.has_value(); }
+
 bool RoadSnapper::nearest(double lat, double lon, SnappedStop& result) const {
     const Index& index = *index_;
-    if (index.tree.empty()) return false;
-    const PlanePoint query = index.to_plane(lat, lon);
+    if (index.empty()) return false;
+    const PlanePoint query = index.plane(lat, lon);
     const graph::Coordinate requested = graph::Coordinate::from_degrees(lat, lon);
+    std::vector<Candidate> candidates;
+    index.candidates(query, candidates);
     double best_meters = std::numeric_limits<double>::infinity();
-    for (auto it = index.tree.qbegin(bgi::nearest(query, kCandidates)); it != index.tree.qend(); ++it) {
-        const Piece& piece = index.pieces[it->second];
-        const std::vector<graph::Coordinate> points = road_graph_->segment_geometry(piece.segment);
-        const graph::Coordinate a = points[piece.first_point];
-        const graph::Coordinate b = points[piece.first_point + 1];
+    for (const Candidate& candidate : candidates) {
+        const graph::Segment& segment = road_graph_->segments()[candidate.segment];
+        const graph::Coordinate a = snapping::segment_point(*road_graph_, segment, candidate.first_point);
+        const graph::Coordinate b = snapping::segment_point(*road_graph_, segment, candidate.first_point + 1);
         // Foot of the perpendicular in the plane, as a parameter along the piece.
-        const PlanePoint pa = it->first.first;
-        const PlanePoint pb = it->first.second;
-        const double dx = bg::get<0>(pb) - bg::get<0>(pa);
-        const double dy = bg::get<1>(pb) - bg::get<1>(pa);
+        const PlanePoint pa = index.plane(a);
+        const PlanePoint pb = index.plane(b);
+        const double dx = pb.x - pa.x;
+        const double dy = pb.y - pa.y;
         const double squared = dx * dx + dy * dy;
-        double t = squared > 0.0 ? ((bg::get<0>(query) - bg::get<0>(pa)) * dx + (bg::get<1>(query) - bg::get<1>(pa)) * dy) / squared
-                                 : 0.0;
+        double t = squared > 0.0 ? ((query.x - pa.x) * dx + (query.y - pa.y) * dy) / squared : 0.0;
         t = std::clamp(t, 0.0, 1.0);
         graph::Coordinate foot{
             static_cast<std::int32_t>(std::lround(a.lat_e7 + t * (static_cast<double>(b.lat_e7) - a.lat_e7))),
@@ -140,14 +177,15 @@ bool RoadSnapper::nearest(double lat, double lon, SnappedStop& result) const {
         const double meters = graph::haversine_meters(requested, foot);
         if (meters >= best_meters) continue;
         best_meters = meters;
-        const double along = piece.meters_before + t * graph::haversine_meters(a, b);
-        double fraction = piece.segment_meters > 0.0 ? along / piece.segment_meters : 0.0;
+        const auto [meters_before, segment_meters] = piece_meters(*road_graph_, segment, candidate.first_point);
+        const double along = meters_before + t * graph::haversine_meters(a, b);
+        double fraction = segment_meters > 0.0 ? along / segment_meters : 0.0;
         // Exactly at a vertex: say so exactly, so the stop is treated as a junction stop.
-        if (t == 0.0 && piece.first_point == 0) fraction = 0.0;
-        if (t == 1.0 && piece.first_point + 2 == points.size()) fraction = 1.0;
+        if (t == 0.0 && candidate.first_point == 0) fraction = 0.0;
+        if (t == 1.0 && candidate.first_point + 2 == snapping::segment_point_count(segment)) fraction = 1.0;
         result.requested = requested;
         result.on_road = foot;
-        result.segment = piece.segment;
+        result.segment = candidate.segment;
         result.fraction = std::clamp(fraction, 0.0, 1.0);
         result.snap_distance_meters = meters;
     }
@@ -162,7 +200,7 @@ SnappedStop RoadSnapper::snap(std::string_view stop_id, double lat, double lon, 
         // Widened so that a stop just outside the region still gets the more useful "n m from the
         // nearest road"; far outside (swapped coordinates, another region) it gets this.
         const double margin_lat = std::max(2.0 * radius_meters, kBoundsMarginMeters) / kMetersPerDegree;
-        const double margin_lon = margin_lat / std::max(index_->reference_cos_lat, 0.01);
+        const double margin_lon = margin_lat / std::max(index_->plane.reference_cos_lat, 0.01);
         if (lat < bounds.min_lat - margin_lat || lat > bounds.max_lat + margin_lat ||
             lon < bounds.min_lon - margin_lon || lon > bounds.max_lon + margin_lon) {
             std::ostringstream message;

@@ -1,9 +1,12 @@
 #pragma once
 // Snapping: a stop (lat, lon) goes to the nearest point of the nearest road segment of the main
-// component (graph component 0, the largest strongly connected one). The index is a
-// Boost.Geometry R-tree over the straight pieces between consecutive shape points, built at load
-// time; the candidates it returns are ranked by the haversine distance to the foot of the
-// perpendicular (in a local equirectangular plane, exact enough below a few kilometres).
+// component (graph component 0, the largest strongly connected one). The index covers the
+// straight pieces between consecutive shape points: the packed Hilbert R-tree `ringroad build`
+// stores in the file (router/snap_index.hpp), searched in place, or, for a file without one, a
+// Boost.Geometry R-tree built at load time. Either yields the kCandidates nearest pieces in a
+// local equirectangular plane, ties settled by piece order (router/snap_geometry.hpp), which are
+// then ranked by the haversine distance to the foot of the perpendicular (exact enough below a
+// few kilometres): both indexes give identical results.
 //
 // The result says where on the segment the stop sits (a fraction of the segment's geometric
 // length from its first vertex) so a route starts or ends there, paying only the part of the edge
@@ -12,6 +15,7 @@
 #include "graph/coordinate.hpp"
 #include "graph/road_graph.hpp"
 
+#include <cstdint>
 #include <memory>
 #include <string>
 #include <string_view>
@@ -29,10 +33,17 @@ struct SnappedStop {
     double snap_distance_meters = 0.0;  // requested -> on_road
 };
 
+enum class SnapIndexSource : std::uint8_t {
+    stored_when_present,   // the file's `snap.` sections when present, else build the fallback
+    built,                 // always build the Boost.Geometry fallback (tests compare the two)
+};
+
 class RoadSnapper {
 public:
     // Indexes the segments of the main component that can be driven in at least one direction.
-    explicit RoadSnapper(const graph::RoadGraph& road_graph);
+    // Throws InputError naming the section and record when a stored index is damaged.
+    explicit RoadSnapper(const graph::RoadGraph& road_graph,
+                         SnapIndexSource source = SnapIndexSource::stored_when_present);
     ~RoadSnapper();
     RoadSnapper(RoadSnapper&&) noexcept;
     RoadSnapper& operator=(RoadSnapper&&) noexcept;
@@ -45,6 +56,9 @@ public:
 
     // The same search without the radius/bounds checks; false only when the index is empty.
     bool nearest(double lat, double lon, SnappedStop& result) const;
+
+    // Whether the index is the stored one (mapped from the file) rather than built at load.
+    bool uses_stored_index() const noexcept;
 
 private:
     struct Index;

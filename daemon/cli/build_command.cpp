@@ -9,6 +9,7 @@
 #include "extract/road_extractor.hpp"
 #include "graph/graph_file.hpp"
 #include "router/hierarchy/contraction_hierarchy.hpp"
+#include "router/stored_sections.hpp"
 
 #include <CLI/CLI.hpp>
 
@@ -83,7 +84,8 @@ void print_summary(const graph::RoadGraph& graph, const BuildArguments& argument
                  graph.metadata_value("restrictions_read").c_str(),
                  graph.metadata_value("restrictions_unmatched").c_str(),
                  count_of(metadata_count(graph, "ways_missing_nodes"), "way", "ways").c_str(),
-                 graph.extra_sections().empty() ? "no contraction hierarchy" : "contraction hierarchy built",
+                 router::hierarchy::has_hierarchy_sections(graph, router::Metric::time) ? "contraction hierarchy built"
+                                                                                    : "no contraction hierarchy",
                  seconds);
 }
 
@@ -101,6 +103,15 @@ graph::RoadGraph add_contraction_hierarchy(const graph::RoadGraph& graph, Progre
     return graph::attach_sections(graph, std::move(sections));
 }
 
+// The routing graph and the snapping index are stored too, so that opening the file derives
+// nothing (router/STORED.md).
+graph::RoadGraph add_query_sections(const graph::RoadGraph& graph, Progress& progress) {
+    progress.phase("storing the routing graph and snapping index");
+    auto sections = router::build_query_sections(graph, router::RestrictionPolicy::automatic);
+    progress.finish();
+    return graph::attach_sections(graph, std::move(sections));
+}
+
 void write_graph(const graph::RoadGraph& graph, const std::string& output, Progress& progress) {
     progress.phase("writing " + output);
     graph::write_road_graph(graph, output);
@@ -111,6 +122,7 @@ void run_build(const BuildArguments& arguments) {
     check_output_folder(arguments.output);
     Progress progress{arguments.quiet};
     graph::RoadGraph graph = build_graph_from_extract(arguments, progress);
+    graph = add_query_sections(graph, progress);   // first: the contraction reuses the stored routing graph
     if (!arguments.no_hierarchy) graph = add_contraction_hierarchy(graph, progress);
     write_graph(graph, arguments.output, progress);
     if (!arguments.quiet) print_summary(graph, arguments, progress.elapsed_seconds());

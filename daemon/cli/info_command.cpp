@@ -1,6 +1,7 @@
 // `ringroad info REGION.rrg [--json]`: provenance and counts of a region graph. Loading the
-// file checks its magic, version and every section checksum, and each stored hierarchy is checked
-// the way the routing commands check it, so `info` doubles as a verifier.
+// file checks its magic, version and every section checksum, and each stored structure (routing
+// graph, snapping index, hierarchies) is checked the way the routing commands check it, so
+// `info` doubles as a verifier.
 
 #include "common/input_error.hpp"
 #include "daemon/cli/commands.hpp"
@@ -8,6 +9,7 @@
 #include "graph/graph_file.hpp"
 #include "router/hierarchy/contraction_hierarchy.hpp"
 #include "router/routing_graph.hpp"
+#include "router/snap_index.hpp"
 
 #include <CLI/CLI.hpp>
 #include <nlohmann/json.hpp>
@@ -34,14 +36,19 @@ double road_km(const graph::RoadGraph& graph) {
 
 // The stored hierarchies by metric: usable by the other commands (with their default restriction
 // setting), or present but not (another layout version, other settings, damage).
+// Also the other structures stored for queries (router/STORED.md); checking them throws on damage.
 struct HierarchyReport {
     std::vector<std::string> usable;
     std::vector<std::string> unusable;
+    std::vector<std::string> stored;   // "routing graph", "snapping index"
 };
 
 HierarchyReport check_hierarchies(const graph::RoadGraph& graph) {
     HierarchyReport report;
-    std::optional<router::RoutingGraph> routing_graph;
+    std::optional<router::RoutingGraph> routing_graph =
+        router::RoutingGraph::from_sections(graph, router::RestrictionPolicy::automatic);
+    if (routing_graph) report.stored.emplace_back("routing graph");
+    if (router::snapping::PackedPieceIndex::from_sections(graph)) report.stored.emplace_back("snapping index");
     for (const router::Metric metric : {router::Metric::time, router::Metric::distance}) {
         if (!router::hierarchy::has_hierarchy_sections(graph, metric)) continue;
         if (!routing_graph) routing_graph.emplace(graph, router::RestrictionPolicy::automatic);
@@ -81,6 +88,7 @@ nlohmann::json info_json(const graph::RoadGraph& graph, const std::string& path)
     info["hierarchy"] = !hierarchies.usable.empty();
     info["hierarchy_metrics"] = hierarchies.usable;
     info["hierarchy_unusable"] = hierarchies.unusable;
+    info["stored_for_queries"] = hierarchies.stored;
     for (const char* key : {"profile", "source", "source_timestamp"}) {
         if (!info.contains(key)) info[key] = "";
     }
@@ -88,6 +96,7 @@ nlohmann::json info_json(const graph::RoadGraph& graph, const std::string& path)
 }
 
 void print_text(const graph::RoadGraph& graph, const std::string& path) {
+    const HierarchyReport hierarchies = check_hierarchies(graph);
     auto value = [&](const char* key) {
         const std::string text = graph.metadata_value(key);
         return text.empty() ? std::string("-") : text;
@@ -107,7 +116,9 @@ void print_text(const graph::RoadGraph& graph, const std::string& path) {
               << "  turn rules       " << graph.turn_restrictions().size() << " stored, "
               << value("restrictions_unmatched") << " not matched\n"
               << "  skipped ways     " << value("ways_missing_nodes") << " (nodes missing from the extract)\n"
-              << "  hierarchy        " << hierarchy_line(check_hierarchies(graph)) << '\n'
+              << "  hierarchy        " << hierarchy_line(hierarchies) << '\n'
+              << "  stored           " << (hierarchies.stored.empty() ? "-" : joined(hierarchies.stored))
+              << "  (derived at every open when absent)\n"
               << "  bounds           " << value("bbox") << "  (lon,lat,lon,lat)\n";
 }
 

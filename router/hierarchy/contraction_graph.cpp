@@ -86,12 +86,12 @@ ContractionGraph::ContractionGraph(const RoutingGraph& routing_graph, Metric met
     }
     out_.reset(out_counts);
     in_.reset(in_counts);
-    const std::span<const PackedWeight> weights = routing_graph.node_weights(metric);
     for (NodeId tail = 0; tail < node_count_; ++tail) {
         for (NodeId head : routing_graph.successors(tail)) {
             if (head == tail) continue;
-            out_.append(tail, {head, kNoNode, weights[head]});
-            in_.append(head, {tail, kNoNode, weights[head]});
+            const PackedWeight weight = routing_graph.node_weight(metric, head);
+            out_.append(tail, {head, kNoNode, weight});
+            in_.append(head, {tail, kNoNode, weight});
         }
     }
 }

@@ -210,7 +210,8 @@ void ContractionHierarchy::unpack_arc(std::uint32_t from, std::uint32_t to, Pack
 
 std::vector<graph::ExtraSection> build_hierarchy_sections(const graph::RoadGraph& road_graph, RestrictionPolicy policy,
                                                           Progress* progress) {
-    const RoutingGraph routing_graph(road_graph, policy);
+    // The stored routing graph when the caller attached it already: not derived a second time.
+    const RoutingGraph routing_graph = RoutingGraph::stored_or_derived(road_graph, policy);
     std::vector<graph::ExtraSection> sections;
     for (Metric metric : {Metric::time, Metric::distance}) {
         std::vector<graph::ExtraSection> part = ContractionHierarchy::build(routing_graph, metric, progress).to_sections();
