@@ -6,6 +6,7 @@
 
 #include <algorithm>
 #include <cstdlib>
+#include <iostream>
 
 namespace ringroad::cli {
 
@@ -88,6 +89,14 @@ nlohmann::ordered_json answer_for_command_line(const std::function<nlohmann::ord
             message = option_name(field) + message.substr(field.size());
         }
         throw InputError(message, field);
+    }
+}
+
+void report_skipped_stops(const nlohmann::ordered_json& answer, const char* what) {
+    if (!answer.contains("skipped_stops")) return;
+    for (const auto& skipped : answer.at("skipped_stops")) {
+        std::cerr << "ringroad: skipped " << what << " '" << skipped.at("id").get<std::string>()
+                  << "': " << skipped.at("meters_to_road").dump() << " m from the nearest road\n";
     }
 }
 

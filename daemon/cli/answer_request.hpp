@@ -29,4 +29,8 @@ answers::AnswerLimits command_line_limits();
 nlohmann::ordered_json answer_for_command_line(const std::function<nlohmann::ordered_json()>& answer,
                                                const router::StopList* stops);
 
+// "ringroad: skipped stop 'x': 812.3 m from the nearest road" on stderr for each stop the answer
+// lists under skipped_stops (`what` is "stop" or "site").
+void report_skipped_stops(const nlohmann::ordered_json& answer, const char* what);
+
 } // namespace ringroad::cli

@@ -61,14 +61,6 @@ void report_unreachable(const nlohmann::ordered_json& unreachable) {
               << '\n';
 }
 
-void report_skipped(const nlohmann::ordered_json& answer) {
-    if (!answer.contains("skipped_stops")) return;
-    for (const auto& skipped : answer.at("skipped_stops")) {
-        std::cerr << "ringroad: skipped stop '" << skipped.at("id").get<std::string>() << "': "
-                  << skipped.at("meters_to_road").dump() << " m from the nearest road\n";
-    }
-}
-
 void run_matrix(const MatrixArguments& arguments) {
     if (!arguments.second_table.empty() && arguments.format != "csv") {
         throw InputError("--second-table: only with --format csv", "second-table");
@@ -108,7 +100,7 @@ void run_matrix(const MatrixArguments& arguments) {
         emit_output(arguments.output, primary);
         print_caution();
     }
-    report_skipped(answer);
+    report_skipped_stops(answer, "stop");
     report_unreachable(answer.at("unreachable"));
 }
 

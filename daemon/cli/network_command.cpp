@@ -26,7 +26,6 @@
 #include <CLI/CLI.hpp>
 #include <nlohmann/json.hpp>
 
-#include <iostream>
 #include <memory>
 #include <string>
 
@@ -89,12 +88,7 @@ void run_network(const NetworkOptions& options) {
         options.matrix.empty() ? &stops : nullptr);
     emit_output(options.output, options.format == "geojson" ? answers::render_network_geojson(answer, body)
                                                             : answers::render_json(answer));
-    if (answer.contains("skipped_stops")) {
-        for (const auto& skipped : answer.at("skipped_stops")) {
-            std::cerr << "ringroad: skipped site '" << skipped.at("id").get<std::string>() << "': "
-                      << skipped.at("meters_to_road").dump() << " m from the nearest road\n";
-        }
-    }
+    report_skipped_stops(answer, "site");
 }
 
 } // namespace

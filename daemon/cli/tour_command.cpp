@@ -25,7 +25,6 @@
 #include <CLI/CLI.hpp>
 #include <nlohmann/json.hpp>
 
-#include <iostream>
 #include <memory>
 #include <string>
 
@@ -122,12 +121,7 @@ void run_tour(const TourOptions& options) {
         text = answers::render_json(answer);
     }
     emit_output(options.output, text);
-    if (answer.contains("skipped_stops")) {
-        for (const auto& skipped : answer.at("skipped_stops")) {
-            std::cerr << "ringroad: skipped stop '" << skipped.at("id").get<std::string>() << "': "
-                      << skipped.at("meters_to_road").dump() << " m from the nearest road\n";
-        }
-    }
+    report_skipped_stops(answer, "stop");
 }
 
 } // namespace
