@@ -53,12 +53,13 @@ RouteMatch route_request(std::string_view method, std::string_view target) {
 }
 
 Reply answer_request(answers::Question question, std::string_view body, const answers::LoadedRegion* region,
-                     const answers::AnswerLimits& limits, std::size_t max_json_depth) {
+                     const answers::AnswerLimits& limits, std::size_t max_json_depth, const AnswerFunction& answer) {
     try {
         const nlohmann::json request = parse_request_body(body, max_json_depth);
         Reply reply;
-        reply.body = answers::answer_json(question, request, region, limits)
-                         .dump(-1, ' ', false, nlohmann::json::error_handler_t::replace);
+        const nlohmann::ordered_json document =
+            answer ? answer(question, request, region, limits) : answers::answer_json(question, request, region, limits);
+        reply.body = document.dump(-1, ' ', false, nlohmann::json::error_handler_t::replace);
         return reply;
     } catch (const answers::RequestError& error) {
         return error_reply(error.status(), error.code(), error.what(), error.field());

@@ -8,6 +8,7 @@
 #include "daemon/answers/json_answer.hpp"
 #include "daemon/service/reply.hpp"
 #include "daemon/service/request_stats.hpp"
+#include "daemon/service/service_options.hpp"
 
 #include <optional>
 #include <string_view>
@@ -22,7 +23,8 @@ struct RouteMatch {
 
 RouteMatch route_request(std::string_view method, std::string_view target);
 
+// `answer` empty: answers::answer_json.
 Reply answer_request(answers::Question question, std::string_view body, const answers::LoadedRegion* region,
-                     const answers::AnswerLimits& limits, std::size_t max_json_depth);
+                     const answers::AnswerLimits& limits, std::size_t max_json_depth, const AnswerFunction& answer = {});
 
 } // namespace ringroad::service

@@ -308,7 +308,7 @@ private:
             limits.matrix_threads = std::max(1u, service.workers_count / static_cast<unsigned>(std::max<std::size_t>(1, service.running)));
             const std::shared_ptr<const answers::LoadedRegion> region = service.region.current();
             Reply reply = answer_request(*self->route_->question, self->parser_->get().body(), region.get(), limits,
-                                         service.options.limits.max_json_depth);
+                                         service.options.limits.max_json_depth, service.options.answer);
             service.running -= 1;
             net::post(self->socket_.get_executor(), [self, reply = std::move(reply)]() mutable { self->write_reply(std::move(reply)); });
         });

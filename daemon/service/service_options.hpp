@@ -5,10 +5,12 @@
 // that suits one dispatcher's office on a small machine (common practice; the README lists them)
 // and is shown by GET /v1/status.
 
+#include "daemon/answers/json_answer.hpp"
 #include "daemon/service/listen_address.hpp"
 
 #include <chrono>
 #include <cstddef>
+#include <functional>
 #include <ostream>
 #include <string>
 
@@ -29,6 +31,11 @@ struct ServiceLimits {
     std::chrono::milliseconds stop_wait{30'000};       // how long a stop waits for requests in flight
 };
 
+// What answers the four questions: answers::answer_json unless a test puts in a slow or failing
+// one (fault injection: the 500 path, a full queue, a stop with work in flight).
+using AnswerFunction = std::function<nlohmann::ordered_json(answers::Question, const nlohmann::json&,
+                                                            const answers::LoadedRegion*, const answers::AnswerLimits&)>;
+
 struct ServiceOptions {
     std::string region_path;        // loaded at start-up and on every reload; never from a request
     ListenAddress listen;
@@ -36,6 +43,7 @@ struct ServiceOptions {
     ServiceLimits limits;
     std::string token;              // non-empty: every request needs "Authorization: Bearer <token>"
     std::ostream* log = nullptr;    // one line per request and the service's notices; null = silent
+    AnswerFunction answer;          // empty: answers::answer_json
 };
 
 } // namespace ringroad::service

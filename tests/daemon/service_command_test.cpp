@@ -1,69 +1,15 @@
-// Stopping: every request already received completes; requests after the stop began get 503 or
-// find the door shut; the real `ringroad serve` exits 0 on SIGTERM and reloads on SIGHUP
-// (signal(7) semantics). The region is the invented demo town (fixtures/demo).
+// The real `ringroad serve` as a child process: it exits 0 on SIGTERM and reloads on SIGHUP
+// (signal(7)), logs one line per request, and refuses what it must at start-up (exit 1). Stopping
+// with requests in flight is in service_faults_test. The region is the invented demo town.
 #include "tests/daemon/service_test_support.hpp"
 
 #include <fcntl.h>
 #include <signal.h>
 #include <sys/wait.h>
 
-#include <atomic>
-#include <mutex>
-#include <random>
 
 using namespace ringroad::test;
 using nlohmann::json;
-
-namespace {
-
-// `count` stops at seeded random points inside the demo town's box (from fixtures/demo/stops.csv),
-// for matrices that keep the workers busy for a while.
-json random_demo_stops(std::size_t count, unsigned seed) {
-    const json known = demo_stops_json();
-    double south = 90, north = -90, west = 180, east = -180;
-    for (const json& stop : known) {
-        south = std::min(south, stop["lat"].get<double>());
-        north = std::max(north, stop["lat"].get<double>());
-        west = std::min(west, stop["lon"].get<double>());
-        east = std::max(east, stop["lon"].get<double>());
-    }
-    std::mt19937 random(seed);
-    std::uniform_real_distribution<double> lat(south, north), lon(west, east);
-    json stops = json::array();
-    for (std::size_t i = 0; i < count; ++i) stops.push_back({{"id", "p" + std::to_string(i)}, {"lat", lat(random)}, {"lon", lon(random)}});
-    return stops;
-}
-
-} // namespace
-
-TEST_CASE("stop with requests in flight: every one of them completes") {
-    ringroad::service::ServiceOptions options = test_service_options();
-    options.threads = 1;   // one worker, so most of the requests wait in the queue when the stop comes
-    RunningService running(options);
-    const std::string body = json{{"stops", random_demo_stops(600, 7)}}.dump();
-    constexpr int kRequests = 8;
-    std::vector<RawConnection> connections;
-    for (int i = 0; i < kRequests; ++i) connections.push_back(RawConnection::tcp(running.port()));
-    for (RawConnection& connection : connections) REQUIRE(connection.send(http_request_text("POST", "/v1/matrix", body)));
-    // Wait until the service holds them all (status answers on the network thread even when busy).
-    for (int wait = 0; wait < 500; ++wait) {
-        const json work = http_exchange(running.port(), "GET", "/v1/status").json().at("work");
-        if (work.at("running").get<int>() + work.at("queued").get<int>() == kRequests) break;
-        std::this_thread::sleep_for(std::chrono::milliseconds(5));
-    }
-    std::thread stopper([&] { running.stop(); });
-    int completed = 0;
-    for (RawConnection& connection : connections) {
-        const HttpAnswer answer = connection.read_answer();
-        INFO(answer.body.substr(0, 300));
-        CHECK(answer.status == 200);
-        CHECK(answer.headers.at("connection") == "close");
-        completed += answer.status == 200;
-    }
-    stopper.join();
-    CHECK(completed == kRequests);
-    CHECK_THROWS(RawConnection::tcp(running.port()));   // no longer accepting
-}
 
 namespace {
 
