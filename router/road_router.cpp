@@ -198,6 +198,8 @@ bool RoadRouter::has_unusable_hierarchy(Metric metric) const {
 }
 double RoadRouter::top_speed_meters_per_second() const noexcept { return state_->top_speed; }
 
+const RoadSnapper& RoadRouter::snapper() const noexcept { return state_->snapper; }
+
 SnappedStop RoadRouter::snap(std::string_view stop_id, double lat, double lon) const {
     return state_->snapper.snap(stop_id, lat, lon, options_.snap_radius_meters);
 }

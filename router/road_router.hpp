@@ -66,6 +66,9 @@ public:
     // The fastest speed of any edge in m/s (a lower bound on travel time is distance / this).
     double top_speed_meters_per_second() const noexcept;
 
+    // The snapping index, for a radius other than the configured one or the nearest road at any
+    // distance (the answer layer's per-request snap radius and far-stop policy).
+    const RoadSnapper& snapper() const noexcept;
     // Snapping with the configured radius; InputError names the stop (see RoadSnapper::snap).
     SnappedStop snap(std::string_view stop_id, double lat, double lon) const;
     std::vector<SnappedStop> snap_stops(const StopList& stops) const;

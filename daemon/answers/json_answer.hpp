@@ -47,5 +47,9 @@ private:
 // else that escapes is an internal error.
 nlohmann::ordered_json answer_json(Question question, const nlohmann::json& body, const LoadedRegion* region,
                                    const AnswerLimits& limits = {});
+// The same for a body parsed as ordered_json: further fields of a stop are echoed in the order
+// given (nlohmann::json sorts object fields by name). The command line uses this one.
+nlohmann::ordered_json answer_json(Question question, const nlohmann::ordered_json& body, const LoadedRegion* region,
+                                   const AnswerLimits& limits = {});
 
 } // namespace ringroad::answers

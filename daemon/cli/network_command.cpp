@@ -1,5 +1,5 @@
 // `ringroad network (REGION.rrg --stops SITES.csv | --matrix MATRIX.csv) [--link-cost cheaper|dearer]
-//  [--metric-closure] [--format json|geojson] [-o FILE]`
+//  [--metric-closure] [--snap-radius M] [--far-stops error|skip] [--format json|geojson] [-o FILE]`
 //
 // The cheapest network joining every site.
 //  * On a bare matrix: the minimum spanning tree of the sites by Kruskal's algorithm. A link can be
@@ -9,30 +9,26 @@
 //    measured in metres (cable and pipe cost follows length), with the links it was built from, the
 //    saving from shared road, and the unique road pieces (GeoJSON MultiLineString with --format
 //    geojson).
-// Output goes to stdout, or atomically to -o FILE (nothing half-written on error).
+// The answer comes from the answer layer (daemon/answers/); output goes to stdout, or atomically
+// to -o FILE (nothing half-written on error).
 
 #include "common/input_error.hpp"
-#include "common/safety_notice.hpp"
+#include "daemon/answers/loaded_region.hpp"
+#include "daemon/answers/renderings.hpp"
+#include "daemon/cli/answer_request.hpp"
 #include "daemon/cli/commands.hpp"
+#include "daemon/cli/far_stops_option.hpp"
 #include "daemon/cli/output.hpp"
 #include "daemon/cli/snap_radius_option.hpp"
-#include "graph/graph_file.hpp"
 #include "planners/matrices/matrix_csv.hpp"
-#include "planners/matrices/matrix_diagnostics.hpp"
-#include "planners/matrices/metric_closure.hpp"
-#include "planners/networks/spanning_tree.hpp"
-#include "router/road_network.hpp"
 #include "router/road_router.hpp"
 
 #include <CLI/CLI.hpp>
 #include <nlohmann/json.hpp>
 
-#include <cmath>
-#include <cstdio>
-#include <cstdlib>
+#include <iostream>
 #include <memory>
 #include <string>
-#include <vector>
 
 namespace ringroad::cli {
 
@@ -49,140 +45,8 @@ struct NetworkOptions {
     std::string format = "json";
     std::string output;
     double snap_radius = 0;
+    std::string far_stops = "error";
 };
-
-double tenths_of(std::uint64_t decimetres) { return static_cast<double>(decimetres) / 10.0; }
-
-// Costs summed in floating point pick up binary noise; 12 significant digits drop it.
-double tidy(double value) {
-    char buffer[40];
-    std::snprintf(buffer, sizeof buffer, "%.12g", value);
-    return std::strtod(buffer, nullptr);
-}
-
-json position(const graph::Coordinate& point) { return json::array({point.lon(), point.lat()}); }
-
-json matrix_network_json(const NetworkOptions& options) {
-    planners::matrices::LabelledMatrix matrix = planners::matrices::read_matrix_csv(options.matrix);
-    const planners::matrices::MatrixDiagnostics diagnostics = planners::matrices::diagnose_matrix(matrix.costs);
-    json closure = {{"used", options.metric_closure}};
-    if (options.metric_closure) {
-        planners::matrices::MetricClosure closed = planners::matrices::metric_closure(matrix.costs);
-        closure["entries_shortened"] = closed.entries_shortened;
-        closure["entries_filled"] = closed.entries_filled;
-        closure["note"] = "link costs are over the metric closure (Floyd–Warshall): a link's cost is the cheapest "
-                          "chain of entries between its stops";
-        matrix.costs = std::move(closed.costs);
-    }
-    const auto rule = options.link_cost == "dearer" ? planners::networks::LinkCostRule::dearer_direction
-                                                    : planners::networks::LinkCostRule::cheaper_direction;
-    const planners::networks::SpanningForest tree = planners::networks::minimum_spanning_tree(matrix, rule);
-    json links = json::array();
-    for (const auto& link : tree.links) {
-        links.push_back({{"from", matrix.ids[link.from]}, {"to", matrix.ids[link.to]}, {"cost", tidy(link.cost)}});
-    }
-    return {{"sites", matrix.ids.size()},
-            {"method", "kruskal minimum spanning tree"},
-            {"links", links},
-            {"cost", tidy(tree.cost)},
-            {"link_cost_rule", std::string(planners::networks::link_cost_rule_name(rule)) +
-                                   (diagnostics.symmetric ? " (the matrix is symmetric: the rule changes nothing)"
-                                                          : " (the matrix is asymmetric)")},
-            {"symmetric", diagnostics.symmetric},
-            {"missing_entries", diagnostics.missing_entries},
-            {"metric_closure", closure}};
-}
-
-struct RoadNetworkAnswer {
-    graph::RoadGraph graph;
-    router::StopList stops;     // with any further columns (name, ...), echoed in GeoJSON
-    std::vector<router::SnappedStop> sites;
-    router::RoadNetwork network;
-};
-
-RoadNetworkAnswer plan_on_roads(const NetworkOptions& options) {
-    router::StopList stops = router::read_stops_csv(options.stops);
-    graph::RoadGraph graph = graph::load_road_graph(options.region);
-    // The snapper alone is enough: a network needs site positions, not the routing engine.
-    const router::RoadSnapper snapper(graph);
-    RoadNetworkAnswer answer{graph, stops, {}, {}};
-    std::vector<router::NetworkSite> sites;
-    for (const router::Stop& stop : stops.stops) {
-        try {
-            answer.sites.push_back(snapper.snap(stop.id, stop.lat, stop.lon, options.snap_radius));
-        } catch (const InputError& error) {
-            throw InputError(stops.source + ":" + std::to_string(stop.line) + ": " + error.what(), error.field());
-        }
-        sites.push_back({stop.id, answer.sites.back().segment, answer.sites.back().fraction});
-    }
-    answer.network = router::plan_road_network(graph, sites);
-    return answer;
-}
-
-json piece_json(const graph::RoadGraph& graph, const router::NetworkPiece& piece) {
-    const graph::Segment& segment = graph.segments()[piece.segment];
-    json out = {{"segment", piece.segment}, {"way_id", segment.way_id}};
-    const std::string_view name = graph.name(segment.name);
-    if (!name.empty()) out["name"] = std::string(name);
-    out["meters"] = tenths_of(piece.length_dm);
-    if (piece.from_fraction != 0.0 || piece.to_fraction != 1.0) {
-        out["from_fraction"] = piece.from_fraction;
-        out["to_fraction"] = piece.to_fraction;
-    }
-    return out;
-}
-
-json road_network_json(const RoadNetworkAnswer& answer) {
-    const auto& network = answer.network;
-    json links = json::array();
-    for (const auto& link : network.links) {
-        links.push_back({{"from", answer.sites[link.from_site].id},
-                         {"to", answer.sites[link.to_site].id},
-                         {"cost", tenths_of(link.length_dm)}});
-    }
-    json segments = json::array();
-    for (const auto& piece : network.pieces) segments.push_back(piece_json(answer.graph, piece));
-    return {{"sites", answer.sites.size()},
-            {"method", "Kou–Markowsky–Berman (Mehlhorn's variant) over road length"},
-            {"metric", "meters"},
-            {"links", links},
-            {"cost", tenths_of(network.road_length_dm)},
-            {"road_meters", tenths_of(network.road_length_dm)},
-            {"link_meters_sum", tenths_of(network.link_length_sum_dm)},
-            {"saving_meters", tenths_of(network.saving_dm())},
-            {"segments", segments},
-            {"note", "roads count in both directions (a cable or pipe along a one-way street serves both ways)"}};
-}
-
-// RFC 7946: the road pieces as one MultiLineString feature, the sites as Point features; the
-// summary is a foreign member of the collection.
-json road_network_geojson(const RoadNetworkAnswer& answer, json summary) {
-    json lines = json::array();
-    for (const auto& piece : answer.network.pieces) {
-        const router::PathPiece path_piece{piece.segment, true, piece.from_fraction, piece.to_fraction, 0, 0};
-        json line = json::array();
-        for (const auto& point : router::path_geometry(answer.graph, {path_piece})) line.push_back(position(point));
-        lines.push_back(line);
-    }
-    json features = json::array();
-    features.push_back({{"type", "Feature"},
-                        {"geometry", {{"type", "MultiLineString"}, {"coordinates", lines}}},
-                        {"properties", {{"road_meters", summary["road_meters"]}, {"segments", lines.size()}}}});
-    for (std::size_t i = 0; i < answer.sites.size(); ++i) {
-        const auto& site = answer.sites[i];
-        json properties = {{"site", site.id}, {"snap_meters", std::round(site.snap_distance_meters * 10) / 10}};
-        const auto& extra = answer.stops.stops[i].extra_values;
-        for (std::size_t column = 0; column < extra.size(); ++column) {
-            const std::string& name = answer.stops.extra_columns[column];
-            if (!properties.contains(name)) properties[name] = extra[column];
-        }
-        features.push_back({{"type", "Feature"},
-                            {"geometry", {{"type", "Point"}, {"coordinates", position(site.on_road)}}},
-                            {"properties", properties}});
-    }
-    summary.erase("segments");
-    return {{"type", "FeatureCollection"}, {"features", features}, {"network", summary}, {"caution", kSafetyNotice}};
-}
 
 void check_options(const NetworkOptions& options) {
     if (options.matrix.empty() && options.stops.empty()) {
@@ -205,22 +69,32 @@ void check_options(const NetworkOptions& options) {
 
 void run_network(const NetworkOptions& options) {
     check_options(options);
-    std::string text;
+    json body = json::object();
+    router::StopList stops;
+    std::shared_ptr<const answers::LoadedRegion> region;
     if (!options.matrix.empty()) {
-        json out = matrix_network_json(options);
-        out["caution"] = kSafetyNotice;
-        text = out.dump(kJsonIndent) + "\n";
+        body["matrix"] = matrix_body(planners::matrices::read_matrix_csv(options.matrix));
+        body["link_cost"] = options.link_cost;
+        if (options.metric_closure) body["metric_closure"] = true;
     } else {
-        const RoadNetworkAnswer answer = plan_on_roads(options);
-        json out = road_network_json(answer);
-        if (options.format == "geojson") {
-            text = road_network_geojson(answer, out).dump(kJsonIndent) + "\n";
-        } else {
-            out["caution"] = kSafetyNotice;
-            text = out.dump(kJsonIndent) + "\n";
+        stops = router::read_stops_csv(options.stops);
+        body["stops"] = stops_body(stops);
+        body["snap_radius"] = options.snap_radius;
+        if (options.far_stops != "error") body["far_stops"] = options.far_stops;
+        if (options.format == "geojson") body["geometry"] = true;
+        region = answers::load_region(options.region);
+    }
+    const json answer = answer_for_command_line(
+        [&] { return answers::answer_json(answers::Question::network, body, region.get(), command_line_limits()); },
+        options.matrix.empty() ? &stops : nullptr);
+    emit_output(options.output, options.format == "geojson" ? answers::render_network_geojson(answer, body)
+                                                            : answers::render_json(answer));
+    if (answer.contains("skipped_stops")) {
+        for (const auto& skipped : answer.at("skipped_stops")) {
+            std::cerr << "ringroad: skipped site '" << skipped.at("id").get<std::string>() << "': "
+                      << skipped.at("meters_to_road").dump() << " m from the nearest road\n";
         }
     }
-    emit_output(options.output, text);
 }
 
 } // namespace
@@ -243,6 +117,7 @@ void add_network_command(CLI::App& app) {
         ->check(CLI::IsMember({"json", "geojson"}));
     command->add_option("-o,--output", options->output, "Write to this file (atomically) instead of stdout");
     add_snap_radius_option(*command, options->snap_radius);
+    add_far_stops_option(*command, options->far_stops);
     command->callback([options] { run_network(*options); });
 }
 

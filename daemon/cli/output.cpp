@@ -17,20 +17,4 @@ void emit_output(const std::string& path, std::string_view text) {
 
 void print_caution() { std::cerr << "ringroad: caution: " << kSafetyNotice << '\n'; }
 
-std::string xml_escape(std::string_view text) {
-    std::string out;
-    out.reserve(text.size());
-    for (const char c : text) {
-        switch (c) {
-        case '&': out += "&amp;"; break;
-        case '<': out += "&lt;"; break;
-        case '>': out += "&gt;"; break;
-        case '"': out += "&quot;"; break;
-        case '\'': out += "&apos;"; break;
-        default: out += c;
-        }
-    }
-    return out;
-}
-
 } // namespace ringroad::cli

@@ -17,7 +17,4 @@ inline constexpr int kJsonIndent = 2;
 // "ringroad: caution: ..." on stderr.
 void print_caution();
 
-// Escapes text for XML character data and attribute values (GPX).
-std::string xml_escape(std::string_view text);
-
 } // namespace ringroad::cli
