@@ -55,7 +55,7 @@ RouteMatch route_request(std::string_view method, std::string_view target) {
 Reply answer_request(answers::Question question, std::string_view body, const answers::LoadedRegion* region,
                      const answers::AnswerLimits& limits, std::size_t max_json_depth, const AnswerFunction& answer) {
     try {
-        const nlohmann::json request = parse_request_body(body, max_json_depth);
+        const nlohmann::ordered_json request = parse_request_body(body, max_json_depth);
         Reply reply;
         const nlohmann::ordered_json document =
             answer ? answer(question, request, region, limits) : answers::answer_json(question, request, region, limits);

@@ -11,7 +11,7 @@ namespace ringroad::service {
 
 namespace {
 
-using nlohmann::json;
+using json = nlohmann::ordered_json;
 
 // Builds the document with nlohmann's DOM builder and keeps, beside it, where in the document the
 // parser stands, so an error can name the field.

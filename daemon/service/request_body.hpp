@@ -13,6 +13,7 @@
 
 namespace ringroad::service {
 
-nlohmann::json parse_request_body(std::string_view body, std::size_t max_depth);
+// Parsed as ordered_json: further fields of a stop are echoed in the order the client gave them.
+nlohmann::ordered_json parse_request_body(std::string_view body, std::size_t max_depth);
 
 } // namespace ringroad::service

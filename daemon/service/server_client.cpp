@@ -45,7 +45,8 @@ http::response<http::string_body> post_and_read(Socket& socket, const http::requ
 
 } // namespace
 
-nlohmann::ordered_json answer_from_server(const std::string& url, answers::Question question, const nlohmann::json& body) {
+nlohmann::ordered_json answer_from_server(const std::string& url, answers::Question question,
+                                          const nlohmann::ordered_json& body) {
     std::string address_text = url;
     if (address_text.rfind("http://", 0) == 0) {
         address_text.erase(0, 7);

@@ -15,6 +15,7 @@
 
 namespace ringroad::service {
 
-nlohmann::ordered_json answer_from_server(const std::string& url, answers::Question question, const nlohmann::json& body);
+nlohmann::ordered_json answer_from_server(const std::string& url, answers::Question question,
+                                          const nlohmann::ordered_json& body);
 
 } // namespace ringroad::service

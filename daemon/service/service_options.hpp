@@ -33,7 +33,7 @@ struct ServiceLimits {
 
 // What answers the four questions: answers::answer_json unless a test puts in a slow or failing
 // one (fault injection: the 500 path, a full queue, a stop with work in flight).
-using AnswerFunction = std::function<nlohmann::ordered_json(answers::Question, const nlohmann::json&,
+using AnswerFunction = std::function<nlohmann::ordered_json(answers::Question, const nlohmann::ordered_json&,
                                                             const answers::LoadedRegion*, const answers::AnswerLimits&)>;
 
 struct ServiceOptions {

@@ -53,7 +53,7 @@ TEST_CASE("an unexpected failure is 500 with an incident id that is also in the 
     std::ostringstream log;
     ringroad::service::ServiceOptions options = test_service_options();
     std::atomic<int> calls{0};
-    options.answer = [&](auto, const json&, auto, auto) -> nlohmann::ordered_json {
+    options.answer = [&](auto, const auto&, auto, auto) -> nlohmann::ordered_json {
         if (calls++ == 0) throw std::runtime_error("injected failure");
         return {{"fine", true}};
     };
@@ -82,7 +82,7 @@ TEST_CASE("requests share the workers: each learns its share of the cores and th
     options.limits.default_time_limit_seconds = 0.5;
     options.limits.max_time_limit_seconds = 7.0;
     ringroad::answers::AnswerLimits seen;
-    options.answer = [&](auto, const json&, auto, const ringroad::answers::AnswerLimits& limits) -> nlohmann::ordered_json {
+    options.answer = [&](auto, const auto&, auto, const ringroad::answers::AnswerLimits& limits) -> nlohmann::ordered_json {
         seen = limits;
         return {};
     };
@@ -100,7 +100,7 @@ TEST_CASE("a full queue is 429 busy; the requests already queued are answered") 
     options.threads = 1;
     options.limits.max_queued = 2;
     Gate gate;
-    options.answer = [&](auto, const json&, auto, auto) -> nlohmann::ordered_json {
+    options.answer = [&](auto, const auto&, auto, auto) -> nlohmann::ordered_json {
         gate.pass();
         return {{"fine", true}};
     };
@@ -126,7 +126,7 @@ TEST_CASE("stop with requests in flight: every one completes; one arriving durin
     ringroad::service::ServiceOptions options = test_service_options();
     options.threads = 1;
     Gate gate;
-    options.answer = [&](auto, const json&, auto, auto) -> nlohmann::ordered_json {
+    options.answer = [&](auto, const auto&, auto, auto) -> nlohmann::ordered_json {
         gate.pass();
         return {{"fine", true}};
     };
