@@ -135,3 +135,44 @@ TEST_CASE("limits in force: stops and matrix cells per request are 413") {
     CHECK(answer.json().at("error").at("code") == "too_large");
     CHECK(http_exchange(running.port(), "GET", "/v1/status").json().at("limits").at("max_stops") == 4);
 }
+
+TEST_CASE("--server: the one-shot commands print the same output, computed by the running service") {
+    RunningService running;
+    const std::string url = "http://127.0.0.1:" + std::to_string(running.port());
+    const std::string region = demo_region_path();
+    const std::string stops_csv = fixture_path("demo/stops.csv");
+    for (const std::string& format : {"csv", "gpx"}) {
+        const CommandResult local = run_ringroad({"tour", region, "--stops", stops_csv, "--format", format});
+        const CommandResult remote = run_ringroad({"tour", "--server", url, "--stops", stops_csv, "--format", format});
+        INFO(remote.err);
+        REQUIRE(remote.exit_code == 0);
+        CHECK(remote.out == local.out);
+    }
+    const CommandResult local = run_ringroad({"matrix", region, "--stops", stops_csv, "--format", "csv"});
+    const CommandResult remote = run_ringroad({"matrix", "--server", url, "--stops", stops_csv, "--format", "csv"});
+    REQUIRE(remote.exit_code == 0);
+    CHECK(remote.out == local.out);
+    CHECK(without_timing(json::parse(run_ringroad({"network", "--server", url, "--stops", stops_csv}).out)) ==
+          without_timing(json::parse(run_ringroad({"network", region, "--stops", stops_csv}).out)));
+    CHECK(without_timing(json::parse(run_ringroad({"route", "--server", url, "--from", "-47.349892,-125.398009", "--to",
+                                                   "-47.343597,-125.386063"}).out)) ==
+          without_timing(json::parse(run_ringroad({"route", region, "--from", "-47.349892,-125.398009", "--to",
+                                                   "-47.343597,-125.386063"}).out)));
+}
+
+TEST_CASE("--server: a refusal reads as the local one; an unreachable service is named (exit 1)") {
+    RunningService running;
+    const std::string url = "http://127.0.0.1:" + std::to_string(running.port());
+    const std::string folder = make_scratch_dir("service-server-option");
+    write_file(folder + "/stops.csv", "id,lat,lon\na,-47.349892,-125.398009\nb,147.3,-125.394027\n");
+    const CommandResult remote = run_ringroad({"tour", "--server", url, "--stops", folder + "/stops.csv"});
+    const CommandResult local = run_ringroad({"tour", demo_region_path(), "--stops", folder + "/stops.csv"});
+    CHECK(remote.exit_code == 1);
+    CHECK(remote.err == local.err);
+    const CommandResult closed = run_ringroad({"tour", "--server", "unix:" + folder + "/nobody.sock", "--stops",
+                                               folder + "/stops.csv"});
+    CHECK(closed.exit_code == 1);
+    CHECK(closed.err.find("nobody.sock") != std::string::npos);
+    const CommandResult both = run_ringroad({"tour", demo_region_path(), "--server", url, "--stops", folder + "/stops.csv"});
+    CHECK(both.exit_code == 2);
+}
