@@ -187,3 +187,35 @@ TEST_CASE("matrix notes a stored hierarchy it cannot use, and answers exactly wi
     REQUIRE(distance.exit_code == 0);
     REQUIRE(distance.err.find("note:") == std::string::npos);
 }
+
+TEST_CASE("matrix --far-stops skip: the far stop is left out, listed with its distance, the rest answered") {
+    const std::string folder = test::make_scratch_dir("matrix-far");
+    // "far" is 0.0075 degrees of latitude (about 830 m) north of the corner stop a: beyond the
+    // 500 m radius, as the bad-input test above shows.
+    test::write_file(folder + "/stops.csv", "id,lat,lon\na,18.05,-141.0\nfar,18.0575,-141.0\nc,18.0518,-140.9981\n");
+    const auto refused = run_ringroad({"matrix", town().region, "--stops", folder + "/stops.csv"});
+    CHECK(refused.exit_code == 1);
+    const auto skipped = run_ringroad(
+        {"matrix", town().region, "--stops", folder + "/stops.csv", "--far-stops", "skip", "--format", "json"});
+    REQUIRE(skipped.exit_code == 0);
+    const auto answer = nlohmann::json::parse(skipped.out);
+    CHECK(answer.at("ids") == nlohmann::json::array({"a", "c"}));
+    REQUIRE(answer.at("skipped_stops").size() == 1);
+    CHECK(answer.at("skipped_stops")[0].at("id") == "far");
+    CHECK(answer.at("skipped_stops")[0].at("meters_to_road").get<double>() > 500.0);
+    REQUIRE_THAT(skipped.err, Catch::Contains("skipped stop 'far'"));
+    CHECK(run_ringroad({"matrix", town().region, "--stops", folder + "/stops.csv", "--far-stops", "drop"}).exit_code == 2);
+}
+
+TEST_CASE("matrix: a request too large for memory is refused before anything is allocated (issue 13 A.17)") {
+    const std::string folder = test::make_scratch_dir("matrix-huge");
+    std::string text = "id,lat,lon\n";
+    for (int i = 0; i < 100000; ++i) text += "s" + std::to_string(i) + ",18.05,-141.0\n";
+    test::write_file(folder + "/stops.csv", text);
+    const auto result = run_ringroad({"matrix", town().region, "--stops", folder + "/stops.csv", "-o", folder + "/out.csv"});
+    CHECK(result.exit_code == 1);
+    REQUIRE_THAT(result.err, Catch::Contains("100000 stops need a 100000 x 100000 table"));
+    REQUIRE_THAT(result.err, Catch::Contains("the limit is"));
+    CHECK(std::count(result.err.begin(), result.err.end(), '\n') == 1);
+    CHECK_FALSE(test::file_exists(folder + "/out.csv"));
+}

@@ -293,3 +293,22 @@ TEST_CASE("tour on the Monaco road graph: seconds and metres, GeoJSON and GPX ge
     CHECK(one_line(far.err));
     CHECK_FALSE(ringroad::test::file_exists(folder + "/far.json"));
 }
+
+TEST_CASE("tour: an open trip needs no way into its start (issue 13 A.10)") {
+    const std::string folder = ringroad::test::make_scratch_dir("tour-chain");
+    // A one-way chain: only a -> b and b -> c. Brute force: the only open trip from a is a, b, c (cost 2).
+    ringroad::test::write_file(folder + "/chain.csv", "id,a,b,c\na,0,1,\nb,,0,1\nc,,,0\n");
+    for (const std::vector<std::string>& shape :
+         {std::vector<std::string>{"--open"}, std::vector<std::string>{"--start", "a", "--end", "c"}}) {
+        std::vector<std::string> arguments{"tour", "--matrix", folder + "/chain.csv"};
+        arguments.insert(arguments.end(), shape.begin(), shape.end());
+        const auto result = run_ringroad(arguments);
+        INFO(result.err);
+        REQUIRE(result.exit_code == 0);
+        const json trip = json::parse(result.out);
+        CHECK(trip.at("order") == json::array({"a", "b", "c"}));
+        CHECK(trip.at("cost") == 2.0);
+    }
+    // A closed tour on the chain is still refused.
+    CHECK(run_ringroad({"tour", "--matrix", folder + "/chain.csv"}).exit_code == 1);
+}
