@@ -14,5 +14,6 @@ void add_route_command(CLI::App& app);
 void add_tour_command(CLI::App& app);
 void add_network_command(CLI::App& app);
 void add_synth_command(CLI::App& app);
+void add_serve_command(CLI::App& app);
 
 } // namespace ringroad::cli

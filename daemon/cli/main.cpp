@@ -23,6 +23,7 @@ int main(int argc, char** argv) {
     ringroad::cli::add_tour_command(app);
     ringroad::cli::add_network_command(app);
     ringroad::cli::add_synth_command(app);
+    ringroad::cli::add_serve_command(app);
 
     try {
         app.parse(argc, argv);

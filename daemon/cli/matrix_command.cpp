@@ -18,6 +18,8 @@
 #include "daemon/cli/commands.hpp"
 #include "daemon/cli/far_stops_option.hpp"
 #include "daemon/cli/output.hpp"
+#include "daemon/cli/server_option.hpp"
+#include "daemon/service/server_client.hpp"
 #include "daemon/cli/snap_radius_option.hpp"
 #include "daemon/cli/unusable_hierarchy_note.hpp"
 #include "router/road_router.hpp"
@@ -36,6 +38,7 @@ namespace {
 
 struct MatrixArguments {
     std::string region;
+    std::string server;
     std::string stops;
     std::string metric = "time";
     std::string format = "csv";
@@ -61,17 +64,8 @@ void report_unreachable(const nlohmann::ordered_json& unreachable) {
               << '\n';
 }
 
-void run_matrix(const MatrixArguments& arguments) {
-    if (!arguments.second_table.empty() && arguments.format != "csv") {
-        throw InputError("--second-table: only with --format csv", "second-table");
-    }
-    // Read the stops before the (larger) graph, so a bad file fails fast.
-    const router::StopList stops = router::read_stops_csv(arguments.stops);
-    nlohmann::ordered_json body{{"stops", stops_body(stops)},
-                                {"metric", arguments.metric},
-                                {"engine", arguments.engine},
-                                {"snap_radius", arguments.snap_radius}};
-    if (arguments.far_stops != "error") body["far_stops"] = arguments.far_stops;
+nlohmann::ordered_json answer_locally(const MatrixArguments& arguments, const nlohmann::ordered_json& body,
+                                      const router::StopList& stops) {
     const answers::AnswerLimits limits = command_line_limits();
     // The size check before the region is loaded, so an impossible request fails fast.
     answer_for_command_line(
@@ -86,8 +80,31 @@ void run_matrix(const MatrixArguments& arguments) {
     const auto region = answers::load_region(arguments.region, options);
     note_unusable_hierarchy(*region->router, arguments.region, *router::metric_from_name(arguments.metric),
                             *router::engine_from_name(arguments.engine));
-    const nlohmann::ordered_json answer = answer_for_command_line(
+    return answer_for_command_line(
         [&] { return answers::answer_json(answers::Question::matrix, body, region.get(), limits); }, &stops);
+}
+
+void run_matrix(const MatrixArguments& arguments) {
+    if (!arguments.second_table.empty() && arguments.format != "csv") {
+        throw InputError("--second-table: only with --format csv", "second-table");
+    }
+    // Read the stops before the (larger) graph, so a bad file fails fast.
+    const router::StopList stops = router::read_stops_csv(arguments.stops);
+    nlohmann::ordered_json body{{"stops", stops_body(stops)},
+                                {"metric", arguments.metric},
+                                {"engine", arguments.engine},
+                                {"snap_radius", arguments.snap_radius}};
+    if (arguments.far_stops != "error") body["far_stops"] = arguments.far_stops;
+    if (arguments.server.empty() == arguments.region.empty()) {
+        throw CLI::ValidationError("matrix", "give REGION.rrg, or --server URL to ask a running service");
+    }
+    nlohmann::ordered_json answer;
+    if (!arguments.server.empty()) {
+        answer = answer_for_command_line(
+            [&] { return service::answer_from_server(arguments.server, answers::Question::matrix, body); }, &stops);
+    } else {
+        answer = answer_locally(arguments, body, stops);
+    }
 
     if (arguments.format == "json") {
         emit_output(arguments.output, answers::render_json(answer));
@@ -109,8 +126,9 @@ void run_matrix(const MatrixArguments& arguments) {
 void add_matrix_command(CLI::App& app) {
     auto arguments = std::make_shared<MatrixArguments>();
     auto* command = app.add_subcommand("matrix", "Travel-time and distance matrix between stops");
-    command->add_option("region", arguments->region, "Region graph (.rrg)")->required();
+    command->add_option("region", arguments->region, "Region graph (.rrg); not with --server");
     command->add_option("--stops", arguments->stops, "Stops CSV: id,lat,lon[,...]")->required();
+    add_server_option(*command, arguments->server);
     command->add_option("--metric", arguments->metric, "time (fastest) or distance (shortest)")
         ->check(CLI::IsMember({"time", "distance"}));
     command->add_option("--format", arguments->format, "csv or json")->check(CLI::IsMember({"csv", "json"}));

@@ -19,6 +19,8 @@
 #include "daemon/cli/commands.hpp"
 #include "daemon/cli/far_stops_option.hpp"
 #include "daemon/cli/output.hpp"
+#include "daemon/cli/server_option.hpp"
+#include "daemon/service/server_client.hpp"
 #include "daemon/cli/snap_radius_option.hpp"
 #include "planners/matrices/matrix_csv.hpp"
 #include "router/road_router.hpp"
@@ -37,6 +39,7 @@ using json = nlohmann::ordered_json;
 
 struct NetworkOptions {
     std::string region;
+    std::string server;
     std::string stops;
     std::string matrix;
     std::string link_cost = "cheaper";
@@ -51,7 +54,10 @@ void check_options(const NetworkOptions& options) {
     if (options.matrix.empty() && options.stops.empty()) {
         throw CLI::ValidationError("network", "give REGION.rrg --stops SITES.csv, or --matrix MATRIX.csv");
     }
-    if (!options.stops.empty() && options.region.empty()) {
+    if (!options.server.empty() && !options.region.empty()) {
+        throw CLI::ValidationError("network", "--server answers on the service's region: give no REGION.rrg");
+    }
+    if (!options.stops.empty() && options.region.empty() && options.server.empty()) {
         throw CLI::ValidationError("network", "--stops needs a region graph: ringroad network REGION.rrg --stops SITES.csv");
     }
     if (!options.matrix.empty() && !options.region.empty()) {
@@ -81,10 +87,13 @@ void run_network(const NetworkOptions& options) {
         body["snap_radius"] = options.snap_radius;
         if (options.far_stops != "error") body["far_stops"] = options.far_stops;
         if (options.format == "geojson") body["geometry"] = true;
-        region = answers::load_region(options.region);
+        if (options.server.empty()) region = answers::load_region(options.region);
     }
     const json answer = answer_for_command_line(
-        [&] { return answers::answer_json(answers::Question::network, body, region.get(), command_line_limits()); },
+        [&] {
+            if (!options.server.empty()) return service::answer_from_server(options.server, answers::Question::network, body);
+            return answers::answer_json(answers::Question::network, body, region.get(), command_line_limits());
+        },
         options.matrix.empty() ? &stops : nullptr);
     emit_output(options.output, options.format == "geojson" ? answers::render_network_geojson(answer, body)
                                                             : answers::render_json(answer));
@@ -97,7 +106,8 @@ void add_network_command(CLI::App& app) {
     auto options = std::make_shared<NetworkOptions>();
     auto* command = app.add_subcommand("network", "The cheapest network joining every site: a spanning tree of a "
                                                   "matrix, or shared road segments on a road graph.");
-    command->add_option("region", options->region, "Region graph (.rrg); needed with --stops");
+    command->add_option("region", options->region, "Region graph (.rrg); needed with --stops, unless --server");
+    add_server_option(*command, options->server);
     auto* stops = command->add_option("--stops", options->stops, "Sites CSV (id,lat,lon,...); road length is minimised");
     auto* matrix = command->add_option("--matrix", options->matrix, "Cost matrix CSV (id,<id1>,<id2>,...)");
     stops->excludes(matrix);

@@ -13,6 +13,8 @@
 #include "daemon/cli/answer_request.hpp"
 #include "daemon/cli/commands.hpp"
 #include "daemon/cli/output.hpp"
+#include "daemon/cli/server_option.hpp"
+#include "daemon/service/server_client.hpp"
 #include "daemon/cli/snap_radius_option.hpp"
 #include "daemon/cli/unusable_hierarchy_note.hpp"
 #include "router/road_router.hpp"
@@ -30,6 +32,7 @@ namespace {
 
 struct RouteArguments {
     std::string region;
+    std::string server;
     std::string from;
     std::string to;
     std::string format = "json";
@@ -58,14 +61,23 @@ void run_route(const RouteArguments& arguments) {
                                       {"metric", arguments.metric},
                                       {"engine", arguments.engine},
                                       {"snap_radius", arguments.snap_radius}};
-    router::RouterOptions options;
-    options.snap_radius_meters = arguments.snap_radius;
-    const auto region = answers::load_region(arguments.region, options);
-    note_unusable_hierarchy(*region->router, arguments.region, *router::metric_from_name(arguments.metric),
-                            *router::engine_from_name(arguments.engine));
-    const nlohmann::ordered_json answer = answer_for_command_line(
-        [&] { return answers::answer_json(answers::Question::route, body, region.get(), command_line_limits()); },
-        nullptr);
+    if (arguments.server.empty() == arguments.region.empty()) {
+        throw CLI::ValidationError("route", "give REGION.rrg, or --server URL to ask a running service");
+    }
+    nlohmann::ordered_json answer;
+    if (!arguments.server.empty()) {
+        answer = answer_for_command_line(
+            [&] { return service::answer_from_server(arguments.server, answers::Question::route, body); }, nullptr);
+    } else {
+        router::RouterOptions options;
+        options.snap_radius_meters = arguments.snap_radius;
+        const auto region = answers::load_region(arguments.region, options);
+        note_unusable_hierarchy(*region->router, arguments.region, *router::metric_from_name(arguments.metric),
+                                *router::engine_from_name(arguments.engine));
+        answer = answer_for_command_line(
+            [&] { return answers::answer_json(answers::Question::route, body, region.get(), command_line_limits()); },
+            nullptr);
+    }
     if (arguments.format == "gpx") {
         emit_output(arguments.output, answers::render_route_gpx(answer));
     } else if (arguments.format == "geojson") {
@@ -80,7 +92,8 @@ void run_route(const RouteArguments& arguments) {
 void add_route_command(CLI::App& app) {
     auto arguments = std::make_shared<RouteArguments>();
     auto* command = app.add_subcommand("route", "The fastest (or shortest) route between two points");
-    command->add_option("region", arguments->region, "Region graph (.rrg)")->required();
+    command->add_option("region", arguments->region, "Region graph (.rrg); not with --server");
+    add_server_option(*command, arguments->server);
     command->add_option("--from", arguments->from, "Start as LAT,LON")->required();
     command->add_option("--to", arguments->to, "End as LAT,LON")->required();
     command->add_option("--format", arguments->format, "json, geojson or gpx")

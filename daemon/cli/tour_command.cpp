@@ -17,6 +17,8 @@
 #include "daemon/cli/commands.hpp"
 #include "daemon/cli/far_stops_option.hpp"
 #include "daemon/cli/output.hpp"
+#include "daemon/cli/server_option.hpp"
+#include "daemon/service/server_client.hpp"
 #include "daemon/cli/snap_radius_option.hpp"
 #include "daemon/cli/unusable_hierarchy_note.hpp"
 #include "planners/matrices/matrix_csv.hpp"
@@ -36,6 +38,7 @@ using json = nlohmann::ordered_json;
 
 struct TourOptions {
     std::string region;
+    std::string server;
     std::string stops;
     std::string matrix;
     std::string start;
@@ -56,7 +59,10 @@ void check_options(const TourOptions& options) {
     if (options.matrix.empty() && options.stops.empty()) {
         throw CLI::ValidationError("tour", "give REGION.rrg --stops STOPS.csv, or --matrix MATRIX.csv");
     }
-    if (!options.stops.empty() && options.region.empty()) {
+    if (!options.server.empty() && !options.region.empty()) {
+        throw CLI::ValidationError("tour", "--server answers on the service's region: give no REGION.rrg");
+    }
+    if (!options.stops.empty() && options.region.empty() && options.server.empty()) {
         throw CLI::ValidationError("tour", "--stops needs a region graph: ringroad tour REGION.rrg --stops STOPS.csv");
     }
     if (!options.matrix.empty() && !options.region.empty()) {
@@ -92,7 +98,7 @@ void run_tour(const TourOptions& options) {
 
     const answers::AnswerLimits limits = command_line_limits();
     std::shared_ptr<const answers::LoadedRegion> region;
-    if (options.matrix.empty()) {
+    if (options.matrix.empty() && options.server.empty()) {
         // The size check before the region is loaded, so an impossible request fails fast.
         answer_for_command_line(
             [&] {
@@ -106,7 +112,10 @@ void run_tour(const TourOptions& options) {
         note_unusable_hierarchy(*region->router, options.region, router::Metric::time, router::Engine::automatic);
     }
     const json answer = answer_for_command_line(
-        [&] { return answers::answer_json(answers::Question::tour, body, region.get(), limits); },
+        [&] {
+            if (!options.server.empty()) return service::answer_from_server(options.server, answers::Question::tour, body);
+            return answers::answer_json(answers::Question::tour, body, region.get(), limits);
+        },
         options.matrix.empty() ? &stops : nullptr);
 
     std::string text;
@@ -130,7 +139,8 @@ void add_tour_command(CLI::App& app) {
     auto options = std::make_shared<TourOptions>();
     auto* command = app.add_subcommand(
         "tour", "The best order to visit every stop (closed tour or open trip), with a lower bound on the optimum.");
-    command->add_option("region", options->region, "Region graph (.rrg); needed with --stops");
+    command->add_option("region", options->region, "Region graph (.rrg); needed with --stops, unless --server");
+    add_server_option(*command, options->server);
     auto* stops = command->add_option("--stops", options->stops, "Stops CSV (id,lat,lon,...); travel time is minimised");
     auto* matrix = command->add_option("--matrix", options->matrix, "Cost matrix CSV (id,<id1>,<id2>,...)");
     stops->excludes(matrix);
