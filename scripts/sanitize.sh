@@ -1,6 +1,7 @@
 #!/usr/bin/env bash
 # The whole test suite under AddressSanitizer, LeakSanitizer and UndefinedBehaviorSanitizer (g++):
-# configures build-sanitize/ (-O1 -g, assertions on, no benchmarks), builds the program and the
+# configures build-sanitize/ (-O1 and line tables only: -g1 compiles a quarter faster than -g and
+# still names file and line in reports; assertions on; no benchmarks), builds the program and the
 # tests, and runs them through CTest; any sanitizer report fails its test. CI runs it after
 # scripts/test.sh (.ci/run); it needs scripts/setup.sh's packages, plus g++'s sanitizer runtimes.
 set -euo pipefail
@@ -8,7 +9,7 @@ cd "$(dirname "$0")/.."
 scripts/install_packages.sh g++ libasan8 libubsan1
 
 cmake -S . -B build-sanitize -DRINGROAD_SANITIZE=ON -DRINGROAD_BUILD_BENCHMARKS=OFF \
-      -DCMAKE_BUILD_TYPE=RelWithDebInfo -DCMAKE_CXX_FLAGS_RELWITHDEBINFO="-O1 -g" >/dev/null
+      -DCMAKE_BUILD_TYPE=RelWithDebInfo -DCMAKE_CXX_FLAGS_RELWITHDEBINFO="-O1 -g1" >/dev/null
 cmake --build build-sanitize -j"$(nproc)" >&2
 
 # LeakSanitizer's suppressions name single third-party functions only (see the file).
