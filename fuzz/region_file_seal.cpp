@@ -1,8 +1,7 @@
 #include "fuzz/region_file_seal.hpp"
 
+#include "graph/checksum.hpp"
 #include "graph/graph_file.hpp"
-
-#include <zlib.h>
 
 #include <cstring>
 
@@ -10,16 +9,16 @@ namespace ringroad::fuzz {
 
 namespace {
 
-// Offsets from graph/FORMAT.md, version 1.
+// Offsets from graph/FORMAT.md, version 2 (64-bit XXH3 checksums).
 constexpr std::size_t kHeaderSize = 64;
 constexpr std::size_t kVersionAt = 8;
 constexpr std::size_t kSectionCountAt = 12;
-constexpr std::size_t kTableCrcAt = 32;
-constexpr std::size_t kHeaderCrcAt = 60;
-constexpr std::size_t kEntrySize = 40;
+constexpr std::size_t kTableChecksumAt = 32;
+constexpr std::size_t kHeaderChecksumAt = 56;
+constexpr std::size_t kEntrySize = 48;
 constexpr std::size_t kEntryOffsetAt = 16;
 constexpr std::size_t kEntrySizeAt = 24;
-constexpr std::size_t kEntryCrcAt = 32;
+constexpr std::size_t kEntryChecksumAt = 32;
 
 template <typename T>
 T read_le(const std::uint8_t* at) {
@@ -29,17 +28,9 @@ T read_le(const std::uint8_t* at) {
 }
 
 void write_u32(std::uint8_t* at, std::uint32_t value) { std::memcpy(at, &value, sizeof value); }
+void write_u64(std::uint8_t* at, std::uint64_t value) { std::memcpy(at, &value, sizeof value); }
 
-std::uint32_t crc_of(const std::uint8_t* data, std::size_t size) {
-    uLong crc = crc32(0L, Z_NULL, 0);
-    while (size > 0) {
-        const auto chunk = static_cast<uInt>(size < (1u << 30) ? size : (1u << 30));
-        crc = crc32(crc, data, chunk);
-        data += chunk;
-        size -= chunk;
-    }
-    return static_cast<std::uint32_t>(crc);
-}
+std::uint64_t checksum_of(const std::uint8_t* data, std::size_t size) { return graph::section_checksum(data, size); }
 
 } // namespace
 
@@ -53,11 +44,11 @@ void seal_region_file(std::uint8_t* data, std::size_t size) {
             std::uint8_t* entry = table + i * kEntrySize;
             const auto offset = read_le<std::uint64_t>(entry + kEntryOffsetAt);
             const auto bytes = read_le<std::uint64_t>(entry + kEntrySizeAt);
-            if (offset <= size && bytes <= size - offset) write_u32(entry + kEntryCrcAt, crc_of(data + offset, bytes));
+            if (offset <= size && bytes <= size - offset) write_u64(entry + kEntryChecksumAt, checksum_of(data + offset, bytes));
         }
-        write_u32(data + kTableCrcAt, crc_of(table, count * kEntrySize));
+        write_u64(data + kTableChecksumAt, checksum_of(table, count * kEntrySize));
     }
-    write_u32(data + kHeaderCrcAt, crc_of(data, kHeaderCrcAt));
+    write_u64(data + kHeaderChecksumAt, checksum_of(data, kHeaderChecksumAt));
 }
 
 } // namespace ringroad::fuzz

@@ -1,6 +1,6 @@
 #pragma once
 // Makes bytes pass a region file's first line of defence: writes this build's format version and
-// recomputes the checksums in place (layout in graph/FORMAT.md, version 1: CRC32 of the header,
+// recomputes the checksums in place (layout in graph/FORMAT.md, version 2: XXH3 of the header,
 // of the section table and of each section). The region-file target seals every input, so its
 // mutants reach the loader's structural checks, as a file from a faulty builder would, and its
 // findings stay meaningful when the checksum or the version changes: only this file has to follow
