@@ -13,6 +13,7 @@
 #include "common/input_error.hpp"
 #include "common/safety_notice.hpp"
 #include "daemon/cli/commands.hpp"
+#include "daemon/cli/numeric_options.hpp"
 #include "daemon/cli/output.hpp"
 #include "daemon/cli/snap_radius_option.hpp"
 #include "daemon/cli/unusable_hierarchy_note.hpp"
@@ -158,9 +159,9 @@ void run_matrix(const MatrixArguments& arguments) {
         emit_output(arguments.output, json_report(road_router, stops, snapped, matrix, arguments.metric, engine_used));
     } else {
         const bool time = *metric == router::Metric::time;
-        const std::string primary = csv_table(stops, matrix, time);
-        if (!arguments.second_table.empty()) write_file_atomically(arguments.second_table, csv_table(stops, matrix, !time));
-        emit_output(arguments.output, primary);
+        std::vector<std::pair<std::string, std::string>> tables{{arguments.output, csv_table(stops, matrix, time)}};
+        if (!arguments.second_table.empty()) tables.emplace_back(arguments.second_table, csv_table(stops, matrix, !time));
+        emit_outputs(tables);   // both tables or neither
         print_caution();
     }
     report_unreachable(stops, matrix);
@@ -182,7 +183,7 @@ void add_matrix_command(CLI::App& app) {
     command->add_option("-o,--output", arguments->output, "Output file (default: standard output)");
     command->add_option("--second-table", arguments->second_table,
                         "CSV only: write the other quantity (metres for time, seconds for distance) here");
-    command->add_option("--threads", arguments->threads, "Threads (0 = all cores)");
+    command->add_option("--threads", arguments->threads, "Threads (0 = all cores)")->check(count_between(0, kMostThreads));
     command->callback([arguments] { run_matrix(*arguments); });
 }
 
