@@ -71,7 +71,9 @@ CLI::Validator pbf_file_name() {
     return CLI::Validator(
         [](std::string& path) -> std::string {
             const bool pbf = path.size() > 4 && path.compare(path.size() - 4, 4, ".pbf") == 0;
-            if (pbf || path == "-" || is_stream_output(path)) return {};
+            std::error_code ignored;
+            // A folder is reported as such when the command runs (exit 1).
+            if (pbf || path == "-" || is_stream_output(path) || std::filesystem::is_directory(path, ignored)) return {};
             return "'" + path + "' does not end in .pbf: synth writes OSM PBF only (name it REGION.osm.pbf)";
         },
         "FILE.osm.pbf");
