@@ -6,6 +6,7 @@
 #include <charconv>
 #include <cmath>
 #include <cstring>
+#include <filesystem>
 #include <fstream>
 #include <sstream>
 
@@ -19,6 +20,8 @@ int CsvTable::column(std::string_view name) const {
 }
 
 namespace {
+
+bool is_line_end(char c) { return c == '\n' || c == '\r'; }
 
 bool is_blank(const std::vector<std::string>& fields) {
     return fields.size() == 1 && fields[0].find_first_not_of(" \t") == std::string::npos;
@@ -58,14 +61,21 @@ CsvTable parse_csv(std::string_view text, const std::string& source_name) {
                             break;
                         }
                     } else {
-                        if (c == '\n') ++line;
+                        if (c == '\n' || (c == '\r' && (position >= text.size() || text[position] != '\n'))) ++line;
                         field += c;
                     }
                 }
+                // Only the field's end may follow its closing quote: "ab"cd is not a field.
+                while (position < text.size() && (text[position] == ' ' || text[position] == '\t')) ++position;
+                if (position < text.size() && !is_line_end(text[position]) && text[position] != ',') {
+                    throw InputError(source_name + ":" + std::to_string(line) + ": column " +
+                                     std::to_string(row.fields.size() + 1) +
+                                     ": text after the closing quote (write a quote inside a quoted field as \"\")");
+                }
             }
-            // Unquoted part (or what follows a closing quote) up to a comma or line end.
-            while (position < text.size() && text[position] != ',' && text[position] != '\n') {
-                if (text[position] != '\r') field += text[position];
+            // Unquoted part up to a comma or line end.
+            while (position < text.size() && text[position] != ',' && !is_line_end(text[position])) {
+                field += text[position];
                 ++position;
             }
             row.fields.push_back(std::move(field));
@@ -74,7 +84,8 @@ CsvTable parse_csv(std::string_view text, const std::string& source_name) {
                 row_done = true;
             } else if (text[position] == ',') {
                 ++position;
-            } else {  // '\n'
+            } else {  // LF, CRLF, or CR alone (old Mac files)
+                if (text[position] == '\r' && position + 1 < text.size() && text[position + 1] == '\n') ++position;
                 ++position;
                 ++line;
                 row_done = true;
@@ -94,10 +105,14 @@ CsvTable parse_csv(std::string_view text, const std::string& source_name) {
 }
 
 CsvTable read_csv_file(const std::string& path) {
+    std::error_code ignored;
+    if (std::filesystem::is_directory(path, ignored)) throw InputError(path + ": is a folder, not a CSV file");
     std::ifstream in(path, std::ios::binary);
     if (!in) throw InputError(path + ": cannot open: " + std::strerror(errno));
     std::ostringstream content;
+    errno = 0;
     content << in.rdbuf();
+    if (in.bad()) throw InputError(path + ": cannot read: " + std::strerror(errno != 0 ? errno : EIO));
     return parse_csv(content.str(), path);
 }
 
@@ -105,7 +120,11 @@ bool parse_double_cell(std::string_view cell, double& value) {
     while (!cell.empty() && (cell.front() == ' ' || cell.front() == '\t')) cell.remove_prefix(1);
     while (!cell.empty() && (cell.back() == ' ' || cell.back() == '\t')) cell.remove_suffix(1);
     if (cell.empty()) return false;
-    if (cell.front() == '+') cell.remove_prefix(1);
+    // One sign at most: "+-47.3" is not a number.
+    if (cell.front() == '+') {
+        cell.remove_prefix(1);
+        if (cell.empty() || cell.front() == '-' || cell.front() == '+') return false;
+    }
     const auto [end, error] = std::from_chars(cell.data(), cell.data() + cell.size(), value);
     return error == std::errc() && end == cell.data() + cell.size() && std::isfinite(value);
 }

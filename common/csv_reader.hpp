@@ -1,6 +1,7 @@
 #pragma once
 // RFC 4180 CSV reading for stop lists and matrices. Quoted fields may hold commas, quotes ("")
-// and line breaks; CRLF and LF endings are both accepted; a UTF-8 byte-order mark is skipped.
+// and line breaks; nothing but the field's end may follow a closing quote; CRLF, LF and CR alone
+// end lines; a UTF-8 byte-order mark is skipped.
 // Every row remembers the line it started on so errors can say "FILE:LINE: column ...".
 
 #include <cstddef>
@@ -25,7 +26,8 @@ struct CsvTable {
     int column(std::string_view name) const;
 };
 
-// Throws InputError ("FILE: cannot open ...", "FILE:LINE: unterminated quoted field", "FILE: empty").
+// Throws InputError ("FILE: cannot open ...", "FILE: is a folder", "FILE:LINE: unterminated quoted
+// field", "FILE:LINE: column C: text after the closing quote", "FILE: empty").
 CsvTable read_csv_file(const std::string& path);
 CsvTable parse_csv(std::string_view text, const std::string& source_name);
 

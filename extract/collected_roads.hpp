@@ -50,6 +50,7 @@ struct CollectedRoads {
     std::vector<RoadNode> road_nodes;
 
     std::string replication_timestamp;        // from the file header, may be empty
+    std::uint64_t names_repaired = 0;         // ways whose name was not UTF-8 (U+FFFD put in)
 };
 
 } // namespace ringroad::extract

@@ -35,6 +35,7 @@ void add_metadata(graph::RoadGraphData& data, const ExtractOptions& options, con
     add("restrictions_unmatched", std::to_string(counts.restrictions_unmatched));
     add("blocking_barriers", std::to_string(counts.blocking_barriers));
     add("delaying_barriers", std::to_string(counts.delaying_barriers));
+    add("names_repaired", std::to_string(roads.names_repaired));
 }
 
 } // namespace

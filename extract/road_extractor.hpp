@@ -10,8 +10,9 @@
 // used twice by one road), road ends and barrier nodes; the nodes between them become the shape
 // points of a segment.
 //
-// Bad input (missing file, not an OSM file, a truncated or corrupt file, no roads) throws
-// ringroad::InputError with one line naming the file.
+// Bad input (missing file, not an OSM file, a truncated or corrupt file, an unreadable id or
+// coordinate, a road node outside [-90, 90] x [-180, 180], no roads) throws ringroad::InputError
+// with one line naming the file.
 
 #include "extract/profile.hpp"
 #include "graph/road_graph.hpp"
@@ -28,7 +29,8 @@ struct ExtractOptions {
 };
 
 // `progress` may be null. The metadata carries source, source_timestamp, profile, built_at,
-// road_ways, ways_missing_nodes, restrictions_read, restrictions_unmatched and barrier counts.
+// road_ways, ways_missing_nodes, restrictions_read, restrictions_unmatched, barrier counts and
+// names_repaired (road names that were not UTF-8, stored with U+FFFD in place of each bad sequence).
 graph::RoadGraphData extract_road_graph(const ExtractOptions& options, Progress* progress);
 
 // extract_road_graph followed by graph::build_road_graph.

@@ -2,6 +2,7 @@
 
 #include "common/input_error.hpp"
 #include "common/progress.hpp"
+#include "common/utf8.hpp"
 #include "extract/pbf_layout.hpp"
 #include "extract/turn_restrictions.hpp"
 
@@ -19,6 +20,7 @@
 #include <unistd.h>
 
 #include <algorithm>
+#include <cstdio>
 #include <filesystem>
 #include <system_error>
 #include <unordered_map>
@@ -26,6 +28,12 @@
 namespace ringroad::extract {
 
 namespace {
+
+// A road node whose coordinates lie outside [-90, 90] x [-180, 180].
+struct OutOfRangeNode {
+    std::int64_t id;
+    osmium::Location location;
+};
 
 // Pass 1: road ways (with their node ids, names and rules) and turn restrictions.
 class RoadWayCollector : public osmium::handler::Handler {
@@ -61,10 +69,17 @@ private:
         const char* name = tags.get_value_by_key("name");
         if (name == nullptr) name = tags.get_value_by_key("ref");
         if (name == nullptr || *name == '\0') return graph::kNoName;
+        // Every output is UTF-8 (JSON, XML): a name that is not is repaired, and counted.
+        std::string text = name;
+        if (first_invalid_utf8(text)) {
+            std::size_t replaced = 0;
+            text = repair_utf8(text, replaced);
+            ++roads_.names_repaired;
+        }
         const auto [position, inserted] =
-            offsets_.try_emplace(name, static_cast<std::uint32_t>(roads_.names.size()));
+            offsets_.try_emplace(text, static_cast<std::uint32_t>(roads_.names.size()));
         if (inserted) {
-            roads_.names += name;
+            roads_.names += text;
             roads_.names += '\0';
         }
         return position->second;
@@ -84,7 +99,12 @@ public:
     void node(const osmium::Node& node) {
         const auto& ids = roads_.road_node_ids;
         const auto found = ids.begin() + static_cast<std::ptrdiff_t>(find_from_cursor(node.id()));
-        if (found == ids.end() || *found != node.id() || !node.location().valid()) return;
+        if (found == ids.end() || *found != node.id()) return;
+        if (!node.location().valid()) {
+            // Stated but impossible (lat 95) is not the same as missing: say which node.
+            if (node.location().is_defined()) throw OutOfRangeNode{node.id(), node.location()};
+            return;
+        }
         RoadNode& road_node = roads_.road_nodes[cursor_];
         road_node.found = true;
         road_node.location = {node.location().y(), node.location().x()};
@@ -278,6 +298,19 @@ CollectedRoads scan_osm_file(const std::string& path, const Profile& profile, Pr
         throw InputError(path + ": truncated or corrupt PBF file (" + one_line(error.what()) + ")");
     } catch (const std::system_error& error) {
         throw InputError(path + ": cannot read (" + one_line(error.what()) + ")");
+    } catch (const OutOfRangeNode& node) {
+        char where[96];
+        std::snprintf(where, sizeof where, "lat %.7g, lon %.7g", node.location.lat_without_check(),
+                      node.location.lon_without_check());
+        throw InputError(path + ": node " + std::to_string(node.id) + " has coordinates outside the valid range (" + where +
+                         "; latitude must be within [-90, 90], longitude within [-180, 180])");
+    } catch (const InputError&) {
+        throw;
+    } catch (const std::bad_alloc&) {
+        throw;
+    } catch (const std::exception& error) {
+        // libosmium's own parsers: an id beyond the 64-bit range, a coordinate like "nan" or text.
+        throw InputError(path + ": not valid OSM data (" + one_line(error.what()) + ")");
     }
     return roads;
 }

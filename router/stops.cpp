@@ -2,6 +2,7 @@
 
 #include "common/csv_reader.hpp"
 #include "common/input_error.hpp"
+#include "common/utf8.hpp"
 
 #include <cmath>
 #include <sstream>
@@ -46,6 +47,34 @@ double coordinate_cell(const CsvTable& table, const CsvRow& row, int column, con
     return value;
 }
 
+// Each column once: `id,lat,lon,lat` would leave the second 'lat' silently unused.
+void check_header_names(const CsvTable& table) {
+    std::unordered_map<std::string, std::size_t> first_column;
+    for (std::size_t c = 0; c < table.header.size(); ++c) {
+        const std::string name = trim(table.header[c]);
+        const auto [existing, inserted] = first_column.emplace(name, c + 1);
+        if (!inserted) {
+            throw InputError(table.source + ":" + std::to_string(table.header_line) + ": column " + std::to_string(c + 1) +
+                                 ": column name '" + name + "' repeats column " + std::to_string(existing->second),
+                             name);
+        }
+    }
+}
+
+// Every answer is JSON or XML, which must be UTF-8: a cell that is not is refused where it is.
+void check_utf8(const CsvTable& table, std::size_t line, const std::vector<std::string>& fields) {
+    for (std::size_t c = 0; c < fields.size(); ++c) {
+        const auto bad = first_invalid_utf8(fields[c]);
+        if (!bad) continue;
+        const std::string column = c < table.header.size() && !first_invalid_utf8(table.header[c])
+                                       ? "'" + table.header[c] + "'"
+                                       : std::to_string(c + 1);
+        throw InputError(table.source + ":" + std::to_string(line) + ": column " + column +
+                             ": not valid UTF-8 (byte " + std::to_string(*bad + 1) + " of the value); save the file as UTF-8",
+                         c < table.header.size() ? table.header[c] : std::string());
+    }
+}
+
 } // namespace
 
 void check_coordinate_range(double lat, double lon, const std::string& what) {
@@ -61,6 +90,8 @@ namespace {
 
 StopList stops_from_table(const CsvTable& table) {
     const std::string& source_name = table.source;
+    check_utf8(table, table.header_line, table.header);
+    check_header_names(table);
     const int id_column = required_column(table, "id");
     const int lat_column = required_column(table, "lat");
     const int lon_column = required_column(table, "lon");
@@ -82,6 +113,7 @@ StopList stops_from_table(const CsvTable& table) {
             throw InputError(line_prefix + ": " + std::to_string(row.fields.size()) +
                              " fields but the header has " + std::to_string(table.header.size()));
         }
+        check_utf8(table, row.line, row.fields);
         Stop stop;
         stop.line = row.line;
         stop.id = static_cast<std::size_t>(id_column) < row.fields.size() ? trim(row.fields[id_column]) : "";

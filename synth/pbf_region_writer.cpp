@@ -47,10 +47,11 @@ public:
         std::string pattern = target + ".tmp-XXXXXX";
         const int descriptor = ::mkstemp(pattern.data());
         if (descriptor < 0) throw InputError(target + ": cannot create a file beside it (" + std::strerror(errno) + ")");
-        // mkstemp makes the file private; give the finished file the usual permissions.
+        // mkstemp makes the file private; a replaced file keeps its mode, a new one gets the usual.
         const mode_t mask = ::umask(0);
         ::umask(mask);
-        ::fchmod(descriptor, 0666 & ~mask);
+        struct stat existing {};
+        ::fchmod(descriptor, ::stat(target.c_str(), &existing) == 0 ? (existing.st_mode & 07777) : (0666 & ~mask));
         ::close(descriptor);
         path_ = pattern;
     }

@@ -3,6 +3,7 @@
 // goes to stderr on a terminal; a one-paragraph summary follows unless --quiet. The output is
 // written through a temporary file, so a failure never leaves a half-written REGION.rrg.
 
+#include "common/atomic_file.hpp"
 #include "common/input_error.hpp"
 #include "common/progress.hpp"
 #include "daemon/cli/commands.hpp"
@@ -12,9 +13,6 @@
 #include "router/stored_sections.hpp"
 
 #include <CLI/CLI.hpp>
-
-#include <fcntl.h>
-#include <unistd.h>
 
 #include <charconv>
 #include <cstdio>
@@ -33,24 +31,6 @@ struct BuildArguments {
     bool quiet = false;
     bool no_hierarchy = false;
 };
-
-// Fails before the (long) extraction when the output could not be written anyway.
-void check_output_folder(const std::string& output) {
-    namespace fs = std::filesystem;
-    fs::path folder = fs::path(output).parent_path();
-    if (folder.empty()) folder = ".";
-    std::error_code error;
-    if (!fs::is_directory(folder, error)) {
-        throw InputError(output + ": output folder '" + folder.string() + "' does not exist");
-    }
-    // Try it rather than ask access(): root passes access() even where nothing can be created.
-    const fs::path probe = folder / (".ringroad-write-check-" + std::to_string(::getpid()));
-    const int descriptor = ::open(probe.c_str(), O_WRONLY | O_CREAT | O_EXCL, 0600);
-    if (descriptor < 0) throw InputError(output + ": output folder '" + folder.string() + "' is not writable");
-    ::close(descriptor);
-    fs::remove(probe, error);
-    if (fs::is_directory(output, error)) throw InputError(output + ": is a folder, not a file name");
-}
 
 // A count from the graph's metadata; 0 when absent.
 std::uint64_t metadata_count(const graph::RoadGraph& graph, const char* key) {
@@ -87,6 +67,10 @@ void print_summary(const graph::RoadGraph& graph, const BuildArguments& argument
                  router::hierarchy::has_hierarchy_sections(graph, router::Metric::time) ? "contraction hierarchy built"
                                                                                     : "no contraction hierarchy",
                  seconds);
+    if (const std::uint64_t repaired = metadata_count(graph, "names_repaired"); repaired > 0) {
+        std::fprintf(stderr, "%s not valid UTF-8: stored with U+FFFD in place of each bad byte sequence.\n",
+                     count_of(repaired, "way's name was", "ways' names were").c_str());
+    }
 }
 
 graph::RoadGraph build_graph_from_extract(const BuildArguments& arguments, Progress& progress) {
@@ -119,7 +103,7 @@ void write_graph(const graph::RoadGraph& graph, const std::string& output, Progr
 }
 
 void run_build(const BuildArguments& arguments) {
-    check_output_folder(arguments.output);
+    check_output_writable(arguments.output);   // before the (long) extraction
     Progress progress{arguments.quiet};
     graph::RoadGraph graph = build_graph_from_extract(arguments, progress);
     graph = add_query_sections(graph, progress);   // first: the contraction reuses the stored routing graph
@@ -134,7 +118,7 @@ void add_build_command(CLI::App& app) {
     auto arguments = std::make_shared<BuildArguments>();
     auto* command = app.add_subcommand("build", "Build a region graph (.rrg) from an OpenStreetMap extract");
     command->add_option("INPUT", arguments->input, "OSM extract: .osm.pbf, .osm, .osm.bz2 or .osm.gz")->required();
-    command->add_option("-o,--output", arguments->output, "Region graph file to write (.rrg)")->required();
+    command->add_option("-o,--output", arguments->output, "Region graph file to write (.rrg; - for standard output)")->required();
     command->add_option("--profile", arguments->profile, "Mode of travel: car (default), bicycle or foot")
         ->check(CLI::IsMember({"car", "bicycle", "foot"}));
     command->add_flag("--quiet", arguments->quiet, "No progress and no summary on stderr");

@@ -1,15 +1,31 @@
 // The `ringroad` program: subcommands, and the one place that turns failures into exit codes:
-// 0 success, 1 a problem with the input or the request, 2 usage, 3 internal error.
+// 0 success, 1 a problem with the input or the request, 2 usage, 3 internal error. Every message
+// is one line on stderr, with anything unprintable from the inputs escaped (common/printable.hpp).
+// A failed write to standard output is a failure too (exit 1).
 
 #include "common/input_error.hpp"
+#include "common/printable.hpp"
+#include "common/standard_output.hpp"
 #include "daemon/cli/commands.hpp"
+#include "daemon/cli/output_paths.hpp"
 
 #include <CLI/CLI.hpp>
 
 #include <exception>
 #include <iostream>
+#include <string>
+
+namespace {
+
+int fail(const std::string& message, int code) {
+    std::cerr << "ringroad: " << ringroad::printable(message) << '\n';
+    return code;
+}
+
+} // namespace
 
 int main(int argc, char** argv) {
+    ringroad::guard_standard_output();
     CLI::App app{"ringroad: road graphs from OpenStreetMap extracts; travel-time matrices, tours "
                  "and spanning networks over them.",
                  "ringroad"};
@@ -25,17 +41,22 @@ int main(int argc, char** argv) {
     ringroad::cli::add_synth_command(app);
     ringroad::cli::add_serve_command(app);
 
+    // Output names are checked once a command line is parsed, before the command does any work.
+    for (CLI::App* command : app.get_subcommands({})) {
+        command->parse_complete_callback([command] { ringroad::cli::check_output_paths(*command); });
+    }
+
     try {
         app.parse(argc, argv);
     } catch (const CLI::ParseError& error) {
-        const int code = app.exit(error);   // prints help, or the usage error
-        return code == 0 ? 0 : 2;
+        if (error.get_exit_code() == 0) return app.exit(error);   // --help, --version
+        return fail(std::string(error.what()) + " (see ringroad --help)", 2);
     } catch (const ringroad::InputError& error) {
-        std::cerr << "ringroad: " << error.what() << '\n';
-        return 1;
+        return fail(error.what(), 1);
     } catch (const std::exception& error) {
-        std::cerr << "ringroad: internal error: " << error.what() << '\n';
-        return 3;
+        return fail(std::string("internal error: ") + error.what(), 3);
     }
+    const std::string output_problem = ringroad::finish_standard_output();
+    if (!output_problem.empty()) return fail(output_problem, 1);
     return 0;
 }

@@ -17,6 +17,7 @@
 #include "daemon/cli/answer_request.hpp"
 #include "daemon/cli/commands.hpp"
 #include "daemon/cli/far_stops_option.hpp"
+#include "daemon/cli/numeric_options.hpp"
 #include "daemon/cli/output.hpp"
 #include "daemon/cli/server_option.hpp"
 #include "daemon/service/server_client.hpp"
@@ -110,11 +111,11 @@ void run_matrix(const MatrixArguments& arguments) {
         emit_output(arguments.output, answers::render_json(answer));
     } else {
         const bool time = arguments.metric == "time";
-        const std::string primary = answers::render_matrix_csv(answer, time);
+        std::vector<std::pair<std::string, std::string>> tables{{arguments.output, answers::render_matrix_csv(answer, time)}};
         if (!arguments.second_table.empty()) {
-            write_file_atomically(arguments.second_table, answers::render_matrix_csv(answer, !time));
+            tables.emplace_back(arguments.second_table, answers::render_matrix_csv(answer, !time));
         }
-        emit_output(arguments.output, primary);
+        emit_outputs(tables);   // both tables or neither
         print_caution();
     }
     report_skipped_stops(answer, "stop");
@@ -139,7 +140,7 @@ void add_matrix_command(CLI::App& app) {
     command->add_option("-o,--output", arguments->output, "Output file (default: standard output)");
     command->add_option("--second-table", arguments->second_table,
                         "CSV only: write the other quantity (metres for time, seconds for distance) here");
-    command->add_option("--threads", arguments->threads, "Threads (0 = all cores)");
+    command->add_option("--threads", arguments->threads, "Threads (0 = all cores)")->check(count_between(0, kMostThreads));
     command->callback([arguments] { run_matrix(*arguments); });
 }
 

@@ -1,5 +1,6 @@
 #include "daemon/cli/snap_radius_option.hpp"
 
+#include "daemon/cli/numeric_options.hpp"
 #include "router/snapping.hpp"
 
 #include <CLI/CLI.hpp>
@@ -14,7 +15,7 @@ void add_snap_radius_option(CLI::App& command, double& radius_meters) {
         .add_option("--snap-radius", radius_meters,
                     "Farthest a stop may be from a road, metres (default " +
                         std::to_string(static_cast<int>(router::kDefaultSnapRadiusMeters)) + ")")
-        ->check(CLI::PositiveNumber);
+        ->check(number_between(0.0, kLargestSnapRadiusMeters, true));
 }
 
 } // namespace ringroad::cli

@@ -6,7 +6,8 @@ namespace CLI { class App; }
 
 namespace ringroad::cli {
 
-// Adds the option; CLI11 refuses a value that is not a positive number (usage error, exit 2).
+// Adds the option; a value that is not a number above 0 and at most kLargestSnapRadiusMeters is
+// a usage error (exit 2).
 void add_snap_radius_option(CLI::App& command, double& radius_meters);
 
 } // namespace ringroad::cli

@@ -16,6 +16,7 @@
 #include "daemon/cli/answer_request.hpp"
 #include "daemon/cli/commands.hpp"
 #include "daemon/cli/far_stops_option.hpp"
+#include "daemon/cli/numeric_options.hpp"
 #include "daemon/cli/output.hpp"
 #include "daemon/cli/server_option.hpp"
 #include "daemon/service/server_client.hpp"
@@ -149,12 +150,13 @@ void add_tour_command(CLI::App& app) {
     auto* open = command->add_flag("--open", options->open, "Open trip with a free end");
     end->excludes(open);
     command->add_option("--time-limit", options->time_limit, "Search effort for large tours in seconds (default 1), turned into a fixed work budget so a seed always gives the same tour")
-        ->check(CLI::NonNegativeNumber);
-    command->add_option("--seed", options->seed, "Seed of the randomised search (same seed, same tour)");
+        ->check(number_between(0.0, kLargestTimeLimitSeconds));
+    command->add_option("--seed", options->seed, "Seed of the randomised search (same seed, same tour)")
+        ->check(count_between(0, UINT64_MAX));
     command->add_option("--method", options->method, "auto (exact when small, else search + bound) or tree-doubling")
         ->check(CLI::IsMember({"auto", "tree-doubling"}));
     command->add_option("--exact-limit", options->exact_limit, "Solve exactly up to this many stops (default 16, at most 20)")
-        ->check(CLI::Range(0, 20));
+        ->check(count_between(0, 20));
     command->add_flag("--metric-closure", options->metric_closure,
                       "Replace each cost by the cheapest chain of costs (Floyd–Warshall) before planning");
     command->add_option("--format", options->format, "json (default), csv, geojson or gpx (the last two need a road graph)")

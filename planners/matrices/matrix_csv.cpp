@@ -4,6 +4,7 @@
 #include "common/csv_reader.hpp"
 #include "common/csv_writer.hpp"
 #include "common/input_error.hpp"
+#include "common/utf8.hpp"
 
 #include <charconv>
 #include <cmath>
@@ -38,6 +39,12 @@ std::vector<std::string> header_ids(const CsvTable& table) {
         throw InputError(table.source + ":" + std::to_string(table.header_line) +
                          ": header names no stops (expected id,<stop id>,<stop id>,...)");
     }
+    for (std::size_t column = 0; column < table.header.size(); ++column) {
+        if (const auto bad = first_invalid_utf8(table.header[column])) {
+            throw InputError(place(table, table.header_line, column + 1) + "not valid UTF-8 (byte " +
+                             std::to_string(*bad + 1) + "); save the file as UTF-8");
+        }
+    }
     std::vector<std::string> ids;
     std::unordered_map<std::string, std::size_t> column_of;
     for (std::size_t column = 1; column < table.header.size(); ++column) {
@@ -62,6 +69,7 @@ double parse_cost(const CsvTable& table, const CsvRow& row, std::size_t column,
                               column_id + "') ";
     if (!parse_double_cell(cell, value)) throw InputError(where + "'" + cell + "' is not a number");
     if (value < 0.0) throw InputError(where + "negative cost " + cell);
+    if (value > kLargestMatrixCost) throw InputError(where + "cost " + cell + " is above the largest allowed, 1e12");
     return value;
 }
 

@@ -57,8 +57,8 @@ void validate(const matrices::CostMatrix& costs, const TourRequest& request) {
         throw InputError("exact limit " + std::to_string(request.exact_limit) + " is above the maximum of " +
                              std::to_string(kHeldKarpMaximumStops) + " stops",
                          "exact_limit");
-    if (!(request.time_limit_seconds >= 0.0) || !std::isfinite(request.time_limit_seconds))
-        throw InputError("time limit must be a non-negative number of seconds", "time_limit");
+    if (!(request.time_limit_seconds >= 0.0) || !(request.time_limit_seconds <= kLongestTimeLimitSeconds))
+        throw InputError("time limit must be a number of seconds from 0 to 86400", "time_limit");
     for (std::size_t from = 0; from < n; ++from)
         for (std::size_t to = 0; to < n; ++to) {
             const double value = costs(from, to);
@@ -199,8 +199,17 @@ struct SearchContext {
 TourResult plan_tree_doubling(const matrices::CostMatrix& costs, const TourRequest& request, const SearchContext& context) {
     const ClosedTripProblem& problem = context.problem;
     TourResult result;
-    const ClosedTour tour = tree_doubling_tour(problem.costs, problem.start);
-    describe_trip(costs, request, trip_order(problem, tour, context.symmetric), result, false);
+    if (is_closed(request)) {
+        const ClosedTour tour = tree_doubling_tour(problem.costs, problem.start);
+        describe_trip(costs, request, trip_order(problem, tour, context.symmetric), result, false);
+    } else {
+        // The closed form's joining city would sit next to the start in the tree walk, on the wrong
+        // side; an open trip is walked on the stops' own costs instead.
+        const auto end = request.shape == TripShape::open_fixed_end ? std::optional<std::size_t>(request.end) : std::nullopt;
+        describe_trip(costs, request,
+                      tree_doubling_trip(with_missing_entries_as(costs, context.unusable), request.start, end), result,
+                      false);
+    }
     result.lower_bound = bound_closed_tour(problem.costs, context.symmetric, result.cost + problem.constant,
                                            context.budget, context.unusable)
                              .value -

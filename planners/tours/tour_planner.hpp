@@ -30,6 +30,10 @@ enum class TourMethod {
 
 enum class TripShape { closed, open_fixed_end, open_free_end };
 
+// The longest time limit a request may ask for: a day of search. It keeps the work budget (time
+// limit x work units per second) well inside a 64-bit count.
+inline constexpr double kLongestTimeLimitSeconds = 86400.0;
+
 struct TourRequest {
     std::size_t start = 0;
     TripShape shape = TripShape::closed;

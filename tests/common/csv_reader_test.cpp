@@ -7,6 +7,8 @@
 
 #include <catch2/catch.hpp>
 
+#include <filesystem>
+
 using namespace ringroad;
 
 TEST_CASE("RFC 4180 section 2 examples parse as the RFC describes") {
@@ -63,4 +65,41 @@ TEST_CASE("writing quotes only what needs quoting and round-trips") {
     CHECK(out == "a,\"b,c\",\"say \"\"hi\"\"\",\"line\nbreak\"\r\n");
     const auto table = parse_csv("h1,h2,h3,h4\r\n" + out, "x.csv");
     CHECK(table.rows[0].fields == std::vector<std::string>{"a", "b,c", "say \"hi\"", "line\nbreak"});
+}
+
+TEST_CASE("a sign must be followed by a number: +-47.3 is not -47.3") {
+    double value = 0.0;
+    CHECK_FALSE(parse_double_cell("+-47.3", value));
+    CHECK_FALSE(parse_double_cell("++1", value));
+    CHECK_FALSE(parse_double_cell("+", value));
+    CHECK(parse_double_cell("+47.3", value));
+    CHECK(value == 47.3);
+    CHECK(parse_double_cell("-47.3", value));
+    CHECK(value == -47.3);
+}
+
+TEST_CASE("text after a closing quote is refused, naming line and column (RFC 4180 section 2, rule 7)") {
+    try {
+        parse_csv("id,name\n1,\"ab\"cd\n", "quotes.csv");
+        FAIL("accepted \"ab\"cd");
+    } catch (const InputError& error) {
+        CHECK(std::string(error.what()).rfind("quotes.csv:2: column 2: text after the closing quote", 0) == 0);
+    }
+    // Spaces after the closing quote are harmless.
+    CHECK(parse_csv("id,name\n1,\"ab\"  \n", "quotes.csv").rows[0].fields[1] == "ab");
+}
+
+TEST_CASE("CR-only line endings (old Mac files) end lines like LF and CRLF") {
+    const auto table = parse_csv("id,lat,lon\rdepot,1,2\rs1,3,4\r", "mac.csv");
+    CHECK(table.header == std::vector<std::string>{"id", "lat", "lon"});
+    REQUIRE(table.rows.size() == 2);
+    CHECK(table.rows[1].fields == std::vector<std::string>{"s1", "3", "4"});
+    CHECK(table.rows[1].line == 3);
+    const auto mixed = parse_csv("id\r\na\rb\nc", "mixed.csv");
+    CHECK(mixed.rows.size() == 3);
+}
+
+TEST_CASE("a folder is named as a folder, not as an empty file") {
+    const std::string folder = std::filesystem::temp_directory_path().string();
+    CHECK_THROWS_WITH(read_csv_file(folder), folder + ": is a folder, not a CSV file");
 }

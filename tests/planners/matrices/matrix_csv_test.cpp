@@ -124,6 +124,10 @@ TEST_CASE("bad matrices get one line naming file, line and column") {
         {"header without stops", "id\n", {"m.csv:1:", "names no stops"}},
         {"infinite value", "id,a,b\na,0,inf\nb,1,0\n", {"m.csv:2: column 3", "not a number"}},
         {"unterminated quote", "id,a,b\na,0,\"1\nb,1,0\n", {"m.csv"}},
+        {"cost near the largest double", "id,a,b\na,0,1.7e308\nb,1,0\n",
+         {"m.csv:2: column 3", "(from 'a' to 'b')", "above the largest allowed, 1e12"}},
+        {"cost just above the maximum", "id,a,b\na,0,1\nb,1000000000001,0\n", {"m.csv:3: column 2", "above the largest"}},
+        {"stop id not UTF-8", "id,a,b\xff\na,0,1\nb\xff,1,0\n", {"m.csv:1: column 3", "not valid UTF-8"}},
     };
     for (const Case& c : cases) {
         INFO(c.what);
@@ -132,4 +136,10 @@ TEST_CASE("bad matrices get one line naming file, line and column") {
         CHECK(one_line(message));
         for (const std::string& part : c.must_contain) CHECK_THAT(message, Catch::Contains(part));
     }
+}
+
+TEST_CASE("costs up to the documented maximum are read exactly") {
+    const LabelledMatrix matrix = parse_matrix_csv("id,a,b\na,0,1e12\nb,999999999999.5,0\n", "m.csv");
+    CHECK(matrix.costs(0, 1) == ringroad::planners::matrices::kLargestMatrixCost);
+    CHECK(matrix.costs(1, 0) == 999999999999.5);
 }
