@@ -164,11 +164,13 @@ TEST_CASE("--server: a refusal reads as the local one; an unreachable service is
     RunningService running;
     const std::string url = "http://127.0.0.1:" + std::to_string(running.port());
     const std::string folder = make_scratch_dir("service-server-option");
-    write_file(folder + "/stops.csv", "id,lat,lon\na,-47.349892,-125.398009\nb,147.3,-125.394027\n");
-    const CommandResult remote = run_ringroad({"tour", "--server", url, "--stops", folder + "/stops.csv"});
-    const CommandResult local = run_ringroad({"tour", demo_region_path(), "--stops", folder + "/stops.csv"});
+    write_file(folder + "/stops.csv", "id,lat,lon\na,-47.349892,-125.398009\nb,-47.346744,-125.394027\n");
+    // The service refuses the unknown start (404 unknown_stop); the command words it as locally.
+    const CommandResult remote = run_ringroad({"tour", "--server", url, "--stops", folder + "/stops.csv", "--start", "zz"});
+    const CommandResult local = run_ringroad({"tour", demo_region_path(), "--stops", folder + "/stops.csv", "--start", "zz"});
     CHECK(remote.exit_code == 1);
     CHECK(remote.err == local.err);
+    CHECK(remote.err.find("zz") != std::string::npos);
     const CommandResult closed = run_ringroad({"tour", "--server", "unix:" + folder + "/nobody.sock", "--stops",
                                                folder + "/stops.csv"});
     CHECK(closed.exit_code == 1);
