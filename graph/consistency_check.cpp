@@ -113,6 +113,9 @@ std::string check_segments(const RoadGraph& graph) {
         const Segment& segment = segments[s];
         if (segment.first_vertex >= n) return out_of_range("segments", s, "first vertex", segment.first_vertex, "n", n);
         if (segment.last_vertex >= n) return out_of_range("segments", s, "last vertex", segment.last_vertex, "n", n);
+        if (segment.length_dm > kLongestSegmentDm) {
+            return out_of_range("segments", s, "length", segment.length_dm, "the largest", kLongestSegmentDm);
+        }
         if (segment.shape_begin > segment.shape_end || segment.shape_end > shape_points) {
             return at("segments", s) + "shape range [" + std::to_string(segment.shape_begin) + ", " +
                    std::to_string(segment.shape_end) + ") is not within the " + std::to_string(shape_points) +
@@ -165,6 +168,13 @@ std::string check_edges(const RoadGraph& graph) {
             if ((edge.reversed ? segment.backward_edge : segment.forward_edge) != e) {
                 return at("edges", e) + "its segment " + std::to_string(edge.segment) + " does not list it as its " +
                        (edge.reversed ? "backward" : "forward") + " edge";
+            }
+            if (edge.length_dm != segment.length_dm) {
+                return at("edges", e) + "length " + std::to_string(edge.length_dm) + " dm differs from its segment's " +
+                       std::to_string(segment.length_dm) + " dm";
+            }
+            if (edge.time_ds > kSlowestEdgeDs) {
+                return out_of_range("edges", e, "time", edge.time_ds, "the largest", kSlowestEdgeDs);
             }
             const VertexId from = edge.reversed ? segment.last_vertex : segment.first_vertex;
             const VertexId to = edge.reversed ? segment.first_vertex : segment.last_vertex;

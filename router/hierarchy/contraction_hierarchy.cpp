@@ -64,7 +64,9 @@ bool view_arcs(const graph::RoadGraph& road_graph, Metric metric, const char* di
         return false;
     }
     for (std::uint32_t rank = 0; rank < node_count; ++rank) {
-        if (out.first[rank] > out.first[rank + 1]) return false;
+        // Each rank's end checked before its arcs are read: offsets that climb past the arc count
+        // and come back down must not read out of range.
+        if (out.first[rank] > out.first[rank + 1] || out.first[rank + 1] > arc_count) return false;
         for (std::uint32_t i = out.first[rank]; i < out.first[rank + 1]; ++i) {
             if (out.arcs[i].other <= rank || out.arcs[i].other >= node_count) return false;
             if (out.middle[i] != kNoNode && out.middle[i] >= rank) return false;

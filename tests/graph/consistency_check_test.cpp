@@ -44,7 +44,7 @@ std::string load_error(const std::string& path) {
 
 // Record sizes and field offsets from graph/FORMAT.md.
 constexpr std::size_t kEdge = 20, kSegment = 40, kRestriction = 24, kCoordinate = 8, kU32 = 4;
-namespace edge_field { constexpr std::size_t head = 0, segment = 4, reversed = 19; }
+namespace edge_field { constexpr std::size_t head = 0, segment = 4, time = 8, length = 12, reversed = 19; }
 namespace segment_field {
 constexpr std::size_t first_vertex = 0, last_vertex = 4, shape_begin = 8, shape_end = 12, name = 20, forward_edge = 24,
                       backward_edge = 28;
@@ -115,7 +115,19 @@ TEST_CASE("a region file with right checksums but inconsistent contents is refus
          "section 'edges' record " + s_str(forward) + ": runs from vertex " + s_str(road.first_vertex) + " to " +
              s_str(other_vertex) + " but its segment " + s_str(two_way) + " runs from " + s_str(road.first_vertex) +
              " to " + s_str(road.last_vertex)},
+        // A length or time that would overflow a search's packed 32-bit halves (a fuzzing finding:
+        // an edge 2^32 dm long overran the distance search's queue).
+        {"edge length not its segment's",
+         [&](E& e) { e.set_field<std::uint32_t>("edges", kEdge, forward, edge_field::length, 4294964296u); },
+         "section 'edges' record " + s_str(forward) + ": length 4294964296 dm differs from its segment's " +
+             s_str(road.length_dm) + " dm"},
+        {"edge time too large",
+         [&](E& e) { e.set_field<std::uint32_t>("edges", kEdge, forward, edge_field::time, 4000000000u); },
+         "section 'edges' record " + s_str(forward) + ": time 4000000000 is out of range (the largest = 100000000)"},
         // segments
+        {"segment length too large",
+         [&](E& e) { e.set_field<std::uint32_t>("segments", kSegment, two_way, 16, 4000000000u); },
+         "section 'segments' record " + s_str(two_way) + ": length 4000000000 is out of range (the largest = 100000000)"},
         {"segment first vertex out of range",
          [&](E& e) { e.set_field<std::uint32_t>("segments", kSegment, two_way, segment_field::first_vertex, n); },
          "section 'segments' record " + s_str(two_way) + ": first vertex " + ns + " is out of range (n = " + ns + ")"},
