@@ -1,7 +1,7 @@
 #!/usr/bin/env bash
 # Installs the Debian 12 packages named as arguments that are missing (sudo when not root); does
-# nothing when all are there. Used by the checking builds (scripts/sanitize.sh, scripts/fuzz.sh)
-# for what they need beyond scripts/setup.sh's list.
+# nothing when all are there. Used by scripts/setup.sh and by the checking builds (scripts/sanitize.sh,
+# scripts/fuzz.sh) for what they need beyond setup.sh's list.
 set -euo pipefail
 
 missing=()

@@ -8,17 +8,7 @@ cd "$(dirname "$0")/.."
 
 packages=(cmake g++ make libosmium2-dev libprotozero-dev zlib1g-dev libbz2-dev libexpat1-dev
           libboost-dev nlohmann-json3-dev catch2 libcli11-dev libxxhash-dev)
-missing=()
-for package in "${packages[@]}"; do
-  dpkg-query -W -f='${Status}' "$package" 2>/dev/null | grep -q "install ok installed" || missing+=("$package")
-done
-if [ ${#missing[@]} -gt 0 ]; then
-  echo "ringroad setup: installing ${missing[*]}" >&2
-  sudo_if_needed=()
-  [ "$(id -u)" -eq 0 ] || sudo_if_needed=(sudo)
-  "${sudo_if_needed[@]}" apt-get update -qq
-  DEBIAN_FRONTEND=noninteractive "${sudo_if_needed[@]}" apt-get install -y -qq --no-install-recommends "${missing[@]}" >&2
-fi
+scripts/install_packages.sh "${packages[@]}"
 
 cmake -S . -B build -DCMAKE_BUILD_TYPE=Release >/dev/null
 targets=()

@@ -8,6 +8,7 @@
 #include "graph/consistency_check.hpp"
 #include "graph/graph_file.hpp"
 #include "tests/graph/random_road_graph.hpp"
+#include "tests/graph/region_file_bytes.hpp"
 #include "tests/graph/region_file_editor.hpp"
 #include "tests/support/run_command.hpp"
 
@@ -19,28 +20,12 @@
 
 using namespace ringroad;
 using namespace ringroad::graph;
+using ringroad::test::load_error;
+using ringroad::test::read_bytes;
+using ringroad::test::write_bytes;
 using test::RegionFileEditor;
 
 namespace {
-
-std::vector<char> read_bytes(const std::string& path) {
-    std::ifstream in(path, std::ios::binary);
-    return {std::istreambuf_iterator<char>(in), std::istreambuf_iterator<char>()};
-}
-
-void write_bytes(const std::string& path, const std::vector<char>& bytes) {
-    std::ofstream out(path, std::ios::binary | std::ios::trunc);
-    out.write(bytes.data(), static_cast<std::streamsize>(bytes.size()));
-}
-
-std::string load_error(const std::string& path) {
-    try {
-        load_road_graph(path);
-    } catch (const InputError& error) {
-        return error.what();
-    }
-    return "";
-}
 
 // Record sizes and field offsets from graph/FORMAT.md.
 constexpr std::size_t kEdge = 20, kSegment = 40, kRestriction = 24, kCoordinate = 8, kU32 = 4;

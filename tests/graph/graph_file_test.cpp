@@ -5,6 +5,7 @@
 #include "common/input_error.hpp"
 #include "graph/graph_file.hpp"
 #include "tests/graph/random_road_graph.hpp"
+#include "tests/graph/region_file_bytes.hpp"
 #include "tests/graph/region_file_editor.hpp"
 #include "tests/support/run_command.hpp"
 
@@ -25,31 +26,15 @@
 
 using namespace ringroad;
 using namespace ringroad::graph;
+using ringroad::test::load_error;
+using ringroad::test::read_bytes;
+using ringroad::test::write_bytes;
 
 namespace {
 
 template <typename T>
 bool same(std::span<const T> a, std::span<const T> b) {
     return a.size() == b.size() && std::memcmp(a.data(), b.data(), a.size_bytes()) == 0;
-}
-
-std::vector<char> read_bytes(const std::string& path) {
-    std::ifstream in(path, std::ios::binary);
-    return {std::istreambuf_iterator<char>(in), std::istreambuf_iterator<char>()};
-}
-
-void write_bytes(const std::string& path, const std::vector<char>& bytes) {
-    std::ofstream out(path, std::ios::binary | std::ios::trunc);
-    out.write(bytes.data(), static_cast<std::streamsize>(bytes.size()));
-}
-
-std::string load_error(const std::string& path) {
-    try {
-        load_road_graph(path);
-    } catch (const InputError& error) {
-        return error.what();
-    }
-    return "";
 }
 
 } // namespace
