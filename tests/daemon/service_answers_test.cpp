@@ -141,7 +141,7 @@ TEST_CASE("--server: the one-shot commands print the same output, computed by th
     const std::string url = "http://127.0.0.1:" + std::to_string(running.port());
     const std::string region = demo_region_path();
     const std::string stops_csv = fixture_path("demo/stops.csv");
-    for (const std::string& format : {"csv", "gpx"}) {
+    for (const std::string format : {"csv", "gpx"}) {
         const CommandResult local = run_ringroad({"tour", region, "--stops", stops_csv, "--format", format});
         const CommandResult remote = run_ringroad({"tour", "--server", url, "--stops", stops_csv, "--format", format});
         INFO(remote.err);
