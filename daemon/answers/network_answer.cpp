@@ -146,10 +146,7 @@ Json answer_network(const Json& request, const LoadedRegion* region, const Answe
     const bool skip_far = read_skip_far(body);
     const bool geometry = body.flag("geometry").value_or(false);
     body.finish();
-    if (has_matrix && (geometry || body.has("far_stops") || body.has("snap_radius"))) {
-        refuse(geometry ? "geometry" : body.has("far_stops") ? "far_stops" : "snap_radius",
-               "places sites on roads: it needs \"stops\" on a region, not \"matrix\"");
-    }
+    if (has_matrix) refuse_road_options_on_matrix(body, geometry, "sites");
     if (has_stops && use_closure) {
         refuse("metric_closure", "applies to a matrix: road distances are already shortest paths");
     }

@@ -158,6 +158,13 @@ double read_snap_radius(RequestObject& body) {
 
 bool read_skip_far(RequestObject& body) { return body.choice("far_stops", {"error", "skip"}, "error") == "skip"; }
 
+void refuse_road_options_on_matrix(RequestObject& body, bool geometry, const std::string& what) {
+    if (geometry || body.has("far_stops") || body.has("snap_radius")) {
+        refuse(geometry ? "geometry" : body.has("far_stops") ? "far_stops" : "snap_radius",
+               "places " + what + " on roads: it needs \"stops\" on a region, not \"matrix\"");
+    }
+}
+
 const router::RoadRouter& region_router(const LoadedRegion* region) {
     if (region == nullptr || !region->router) {
         throw RequestError(422, "no_region", "this question needs a region graph (stops are placed on its roads)");

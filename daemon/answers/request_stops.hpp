@@ -50,6 +50,9 @@ PlacedStops place_stops(const router::RoadRouter& router, const std::vector<Requ
 // The common options: "snap_radius" (metres, > 0) and "far_stops" ("error" | "skip").
 double read_snap_radius(RequestObject& body);
 bool read_skip_far(RequestObject& body);
+// Refuses (400, naming the field) "geometry", "far_stops" or "snap_radius" on a bare-matrix
+// request: they place `what` ("stops", "sites") on roads. Call after body.finish().
+void refuse_road_options_on_matrix(RequestObject& body, bool geometry, const std::string& what);
 
 // The region a road question needs; refuses (422 "no_region") when there is none.
 const router::RoadRouter& region_router(const LoadedRegion* region);

@@ -142,10 +142,7 @@ Json answer_tour(const Json& request, const LoadedRegion* region, const AnswerLi
     const bool skip_far = read_skip_far(body);
     const bool geometry = body.flag("geometry").value_or(false);
     body.finish();
-    if (has_matrix && (geometry || body.has("far_stops") || body.has("snap_radius"))) {
-        refuse(geometry ? "geometry" : body.has("far_stops") ? "far_stops" : "snap_radius",
-               "places stops on roads: it needs \"stops\" on a region, not \"matrix\"");
-    }
+    if (has_matrix) refuse_road_options_on_matrix(body, geometry, "stops");
 
     if (!has_matrix) {
         check_table_size(input.stops.size(), kTourBytesPerCell, limits, "stops");
